@@ -1,0 +1,75 @@
+using System.Globalization;
+using System.Text;
+
+namespace HandLine.Model;
+
+/// <summary>
+/// The symbols a model can emit. Index 0 of the model's output is the CTC blank; symbol i of this set
+/// is output i + 1. Symbols are single Unicode code points (NFC), so scoring and decoding agree.
+/// </summary>
+public sealed class CharacterSet
+{
+    /// <summary>Ledger and register text: letters, digits, common punctuation, money and fractions.</summary>
+    public const string DefaultSymbols =
+        " !\"&'()*+,-./0123456789:;=?ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz£¼½¾";
+
+    private readonly string[] _symbols;
+    private readonly Dictionary<string, int> _index;
+
+    public CharacterSet(IEnumerable<string> symbols)
+    {
+        ArgumentNullException.ThrowIfNull(symbols);
+        _symbols = symbols.ToArray();
+        _index = new Dictionary<string, int>(StringComparer.Ordinal);
+        for (var i = 0; i < _symbols.Length; i++)
+        {
+            var s = _symbols[i];
+            if (s.EnumerateRunes().Count() != 1)
+                throw new ArgumentException($"Symbol '{s}' is not a single code point.", nameof(symbols));
+            if (!_index.TryAdd(s, i))
+                throw new ArgumentException($"Symbol '{s}' appears twice.", nameof(symbols));
+        }
+    }
+
+    public static CharacterSet Default { get; } = FromString(DefaultSymbols);
+
+    public static CharacterSet FromString(string symbols) =>
+        new(symbols.Normalize(NormalizationForm.FormC).EnumerateRunes().Select(r => r.ToString()));
+
+    /// <summary>Number of symbols, excluding the blank.</summary>
+    public int Count => _symbols.Length;
+
+    /// <summary>Model output width: symbols plus the CTC blank.</summary>
+    public int ClassCount => _symbols.Length + 1;
+
+    public IReadOnlyList<string> Symbols => _symbols;
+
+    /// <summary>Symbol for model output class (class 0 is the blank and has none).</summary>
+    public string SymbolOf(int classIndex) => _symbols[classIndex - 1];
+
+    public bool Contains(string symbol) => _index.ContainsKey(symbol);
+
+    /// <summary>Model classes (1-based) for a text; throws naming the first symbol outside the set.</summary>
+    public int[] Encode(string text)
+    {
+        var runes = text.Normalize(NormalizationForm.FormC).EnumerateRunes().ToArray();
+        var classes = new int[runes.Length];
+        for (var i = 0; i < runes.Length; i++)
+        {
+            var s = runes[i].ToString();
+            if (!_index.TryGetValue(s, out var k))
+                throw new ArgumentException(
+                    $"Character '{s}' (U+{runes[i].Value:X4}) is not in the character set.", nameof(text));
+            classes[i] = k + 1;
+        }
+        return classes;
+    }
+
+    /// <summary>True when every character of the text is in the set.</summary>
+    public bool CanEncode(string text) =>
+        text.Normalize(NormalizationForm.FormC).EnumerateRunes().All(r => _index.ContainsKey(r.ToString()));
+
+    public override string ToString() => string.Concat(_symbols);
+
+    internal static string Describe(Rune r) => string.Create(CultureInfo.InvariantCulture, $"U+{r.Value:X4}");
+}
