@@ -1,1 +1,11 @@
-System.Console.WriteLine("x");
+using System.CommandLine;
+using HandLine.Cli.Commands;
+
+var root = new RootCommand("HandLine: transcribe scanned handwritten text lines, score transcripts, train models.")
+{
+    TranscribeCommand.Create(),
+    ScoreCommand.Create(),
+    SynthCommand.Create(),
+    TrainCommand.Create(),
+};
+return root.Parse(args).Invoke();

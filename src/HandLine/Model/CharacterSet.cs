@@ -1,6 +1,3 @@
-using System.Globalization;
-using System.Text;
-
 namespace HandLine.Model;
 
 /// <summary>
@@ -34,7 +31,7 @@ public sealed class CharacterSet
     public static CharacterSet Default { get; } = FromString(DefaultSymbols);
 
     public static CharacterSet FromString(string symbols) =>
-        new(symbols.Normalize(NormalizationForm.FormC).EnumerateRunes().Select(r => r.ToString()));
+        new(Scoring.TextUnits.ToNfc(symbols).EnumerateRunes().Select(r => r.ToString()));
 
     /// <summary>Number of symbols, excluding the blank.</summary>
     public int Count => _symbols.Length;
@@ -52,7 +49,7 @@ public sealed class CharacterSet
     /// <summary>Model classes (1-based) for a text; throws naming the first symbol outside the set.</summary>
     public int[] Encode(string text)
     {
-        var runes = text.Normalize(NormalizationForm.FormC).EnumerateRunes().ToArray();
+        var runes = Scoring.TextUnits.ToNfc(text).EnumerateRunes().ToArray();
         var classes = new int[runes.Length];
         for (var i = 0; i < runes.Length; i++)
         {
@@ -67,9 +64,7 @@ public sealed class CharacterSet
 
     /// <summary>True when every character of the text is in the set.</summary>
     public bool CanEncode(string text) =>
-        text.Normalize(NormalizationForm.FormC).EnumerateRunes().All(r => _index.ContainsKey(r.ToString()));
+        Scoring.TextUnits.ToNfc(text).EnumerateRunes().All(r => _index.ContainsKey(r.ToString()));
 
     public override string ToString() => string.Concat(_symbols);
-
-    internal static string Describe(Rune r) => string.Create(CultureInfo.InvariantCulture, $"U+{r.Value:X4}");
 }

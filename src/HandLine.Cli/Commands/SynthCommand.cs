@@ -1,0 +1,53 @@
+using System.CommandLine;
+using System.Globalization;
+using HandLine.Scoring;
+using HandLine.Synthesis;
+
+namespace HandLine.Cli.Commands;
+
+internal static class SynthCommand
+{
+    public static Command Create()
+    {
+        var fonts = new Option<string[]>("--fonts")
+        {
+            Description = "Font files or folders (.ttf, .otf, .woff)", Required = true, AllowMultipleArgumentsPerToken = true,
+        };
+        var count = new Option<int>("--count") { Description = "Lines to render", Required = true };
+        var outDir = new Option<string>("--out") { Description = "Folder for lines/*.png, lines.tsv and degradations.jsonl", Required = true };
+        var text = new Option<string?>("--text") { Description = "UTF-8 file of lines to render instead of generated ledger text" };
+        var seed = new Option<int>("--seed") { DefaultValueFactory = _ => 1, Description = "Seed: same seed, same files" };
+        var clean = new Option<bool>("--clean") { Description = "Render without degradations" };
+        var command = new Command("synth", "Render synthetic handwriting-style text lines for training")
+        {
+            fonts, count, outDir, text, seed, clean,
+        };
+        command.SetAction(parse => CommandRunner.Guard(() =>
+        {
+            if (parse.GetValue(count) < 1) throw new ArgumentException("--count must be at least 1");
+            using var catalog = FontCatalog.Load(parse.GetValue(fonts)!);
+            foreach (var e in catalog.Errors) Console.Error.WriteLine($"skipped font: {e.Message}");
+            var textPath = parse.GetValue(text);
+            IEnumerable<string>? texts = null;
+            if (textPath is not null)
+            {
+                try
+                {
+                    texts = File.ReadAllLines(textPath).Where(l => l.Trim().Length > 0).ToArray();
+                }
+                catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+                {
+                    throw new InputException(textPath, "read", $"cannot read the text file: {e.Message}", e);
+                }
+            }
+            var summary = LineSynthesiser.Generate(new SynthesisRequest(catalog, parse.GetValue(count), parse.GetValue(outDir)!,
+                parse.GetValue(seed), texts, parse.GetValue(clean) ? DegradationRanges.None : null), Console.Error);
+            Console.Error.WriteLine($"{summary.LinesWritten} lines written to {summary.ManifestPath}, {summary.LinesSkipped} skipped, {summary.FontsUsed.Count} fonts used");
+            foreach (var s in summary.Skipped.Take(10)) Console.Error.WriteLine($"  skipped line {s.Index}: {s.Reason}");
+            Console.Error.WriteLine("symbol counts: " + string.Join(" ", summary.SymbolCounts.OrderBy(kv => kv.Value)
+                .Select(kv => string.Create(CultureInfo.InvariantCulture, $"'{kv.Key}':{kv.Value}"))));
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+}

@@ -1,0 +1,72 @@
+using System.CommandLine;
+using System.Globalization;
+using HandLine.Features;
+using HandLine.Imaging;
+using HandLine.Model;
+using HandLine.Training;
+
+namespace HandLine.Cli.Commands;
+
+internal static class TrainCommand
+{
+    public static Command Create()
+    {
+        var train = new Option<string[]>("--train") { Description = "Training manifest TSV(s)", Required = true, AllowMultipleArgumentsPerToken = true };
+        var valid = new Option<string>("--valid") { Description = "Validation manifest TSV", Required = true };
+        var outPath = new Option<string>("--out") { Description = "Model file to write (the best by validation CER)", Required = true };
+        var from = new Option<string?>("--from") { Description = "Start from this model (fine-tuning) instead of random weights" };
+        var epochs = new Option<int>("--epochs") { DefaultValueFactory = _ => 30, Description = "Passes over the training lines" };
+        var maxMinutes = new Option<double>("--max-minutes") { Description = "Stop after this many minutes of training (0 = no limit)" };
+        var batch = new Option<int>("--batch") { DefaultValueFactory = _ => 16, Description = "Lines per batch" };
+        var seed = new Option<int>("--seed") { DefaultValueFactory = _ => 1, Description = "Seed for weights and batch order" };
+        var threads = new Option<int>("--threads") { Description = "CPU threads for the network (0 = all)" };
+        var resume = new Option<bool>("--resume") { Description = "Continue from the checkpoint beside --out" };
+        var lr = new Option<double>("--learning-rate") { DefaultValueFactory = _ => 1e-3, Description = "Adam step size" };
+        var hidden = new Option<int>("--hidden") { DefaultValueFactory = _ => 128, Description = "LSTM units per direction (new models)" };
+        var layers = new Option<int>("--layers") { DefaultValueFactory = _ => 2, Description = "LSTM layers (new models)" };
+        var height = new Option<int>("--line-height") { DefaultValueFactory = _ => 40, Description = "Normalised line height (new models)" };
+        var stride = new Option<int>("--frame-stride") { DefaultValueFactory = _ => 2, Description = "Columns per frame (new models)" };
+        var geometric = new Option<bool>("--geometric") { Description = "Add geometric column features (new models)" };
+
+        var command = new Command("train", "Train a model with CTC loss on manifest lines, keeping the best by validation CER")
+        {
+            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric,
+        };
+        command.SetAction((parse, cancel) => Task.FromResult(CommandRunner.Guard(() =>
+        {
+            var options = new TrainingOptions
+            {
+                Epochs = parse.GetValue(epochs), MaxMinutes = parse.GetValue(maxMinutes), BatchSize = parse.GetValue(batch),
+                Seed = parse.GetValue(seed), Threads = parse.GetValue(threads), Resume = parse.GetValue(resume),
+                LearningRate = parse.GetValue(lr),
+            };
+            options.Validate();
+            var fromPath = parse.GetValue(from);
+            using var model = fromPath is null
+                ? LineModel.Create(CharacterSet.Default,
+                    new FeatureConfig(parse.GetValue(height), parse.GetValue(geometric), parse.GetValue(stride)),
+                    new NetworkConfig(parse.GetValue(hidden), parse.GetValue(layers)), options.Seed)
+                : ModelFile.Load(fromPath);
+
+            var limits = new ImagingOptions();
+            var clock = System.Diagnostics.Stopwatch.StartNew();
+            var (trainSet, trainErrors) = TrainingData.Load(parse.GetValue(train)!, model.Features, model.Charset, limits, options.Threads);
+            var (validSet, validErrors) = TrainingData.Load([parse.GetValue(valid)!], model.Features, model.Charset, limits, options.Threads);
+            foreach (var e in trainErrors.Concat(validErrors).Take(20)) Console.Error.WriteLine($"skipped: {e.Message}");
+            if (trainErrors.Count + validErrors.Count > 20) Console.Error.WriteLine($"... {trainErrors.Count + validErrors.Count - 20} more skipped");
+            Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"prepared {trainSet.Count} training and {validSet.Count} validation lines in {clock.Elapsed.TotalSeconds:F0} s"));
+
+            var recipe = new TrainingRecord(
+                "handline train " + string.Join(' ', Environment.GetCommandLineArgs().Skip(1).SkipWhile(a => a != "train").Skip(1)),
+                parse.GetValue(train)!.Select(Path.GetFileName).OfType<string>().ToArray(), Path.GetFileName(parse.GetValue(valid)),
+                options.Seed, 0, 0, 0, fromPath is null ? null : model.Id);
+            var result = new Trainer(Console.Error, interactive: !Console.IsErrorRedirected)
+                .Train(model, trainSet, validSet, parse.GetValue(outPath)!, options, recipe, cancel);
+            Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"\nbest validation CER {result.BestValidationCer:P2} after {result.Epochs} epochs, {result.LinesSeen} lines, {result.Minutes:F1} min{(result.StoppedEarly ? " (stopped; resume with --resume)" : "")}"));
+            return ExitCodes.Ok;
+        })));
+        return command;
+    }
+}

@@ -1,0 +1,62 @@
+using HandLine.Scoring;
+
+namespace HandLine.Batch;
+
+/// <summary>
+/// Expands command-line inputs into source images: image files, folders (recursive, sorted ordinally so
+/// every machine sees the same order) and manifest TSVs. Problems become errors; the rest still loads.
+/// </summary>
+public static class InputSet
+{
+    public static readonly IReadOnlySet<string> ImageExtensions =
+        new HashSet<string>(StringComparer.OrdinalIgnoreCase) { ".png", ".jpg", ".jpeg", ".tif", ".tiff", ".bmp", ".gif" };
+
+    public static (IReadOnlyList<SourceImage> Sources, IReadOnlyList<InputException> Errors) Expand(IEnumerable<string> inputs)
+    {
+        var sources = new List<SourceImage>();
+        var errors = new List<InputException>();
+        var seen = new HashSet<string>(StringComparer.Ordinal);
+        foreach (var input in inputs)
+        {
+            if (Directory.Exists(input))
+            {
+                var root = Path.GetFullPath(input);
+                var files = Directory.EnumerateFiles(root, "*", SearchOption.AllDirectories)
+                    .Where(f => ImageExtensions.Contains(Path.GetExtension(f)))
+                    .Select(f => Path.GetRelativePath(root, f).Replace('\\', '/'))
+                    .Order(StringComparer.Ordinal);
+                foreach (var rel in files) Add(new SourceImage(rel, Path.Combine(root, rel)));
+            }
+            else if (File.Exists(input) && Path.GetExtension(input).Equals(".tsv", StringComparison.OrdinalIgnoreCase))
+            {
+                try
+                {
+                    var manifest = Manifest.Read(input);
+                    errors.AddRange(manifest.Errors);
+                    foreach (var e in manifest.Entries)
+                        Add(new SourceImage(e.RelativePath.Replace('\\', '/'), e.FullPath, e.Text));
+                }
+                catch (InputException e)
+                {
+                    errors.Add(e);
+                }
+            }
+            else if (File.Exists(input))
+            {
+                Add(new SourceImage(Path.GetFileName(input), Path.GetFullPath(input)));
+            }
+            else
+            {
+                errors.Add(new InputException(input, "read", "no such file or folder"));
+            }
+        }
+        return (sources, errors);
+
+        void Add(SourceImage s)
+        {
+            // Two inputs with the same relative path would write the same output files.
+            if (seen.Add(s.Source)) sources.Add(s);
+            else errors.Add(new InputException(s.FullPath, "read", $"another input already produces outputs named '{s.Source}'"));
+        }
+    }
+}

@@ -1,0 +1,14 @@
+using HandLine.Decoding;
+
+namespace HandLine.Batch;
+
+/// <summary>One recognised line of one source, as written to the reports.</summary>
+public sealed record LineResult(
+    string Source,
+    int Line,
+    string Text,
+    double Confidence,
+    bool Flagged,
+    IReadOnlyList<CharConfidence> Chars,
+    double DeskewDegrees,
+    double SlantDegrees);

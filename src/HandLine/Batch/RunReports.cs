@@ -1,0 +1,100 @@
+using System.Globalization;
+using System.Text;
+using System.Text.Encodings.Web;
+using System.Text.Json;
+
+namespace HandLine.Batch;
+
+/// <summary>
+/// The run's report files, streamed to temporary files as sources complete and renamed into place by
+/// <see cref="Complete"/>; until then no report exists under its final name.
+/// </summary>
+internal sealed class RunReports : IDisposable
+{
+    public static readonly JsonSerializerOptions JsonLine = new()
+    {
+        // Keep transcripts readable (£, ½, accents) rather than \u-escaped.
+        Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping,
+    };
+
+    private readonly string _dir;
+    private readonly (string Final, string Temp, StreamWriter Writer)[] _files;
+
+    public RunReports(string dir)
+    {
+        _dir = dir;
+        _files = new[] { "lines.jsonl", "lines.csv", "errors.jsonl" }.Select(name =>
+        {
+            var final = Path.Combine(dir, name);
+            var temp = AtomicFile.TempPathFor(final);
+            return (final, temp, new StreamWriter(temp, false, new UTF8Encoding(false)) { NewLine = "\n" });
+        }).ToArray();
+        Csv.WriteLine("source,line,text,confidence,flagged,deskew_deg,slant_deg");
+    }
+
+    private StreamWriter Jsonl => _files[0].Writer;
+    private StreamWriter Csv => _files[1].Writer;
+    private StreamWriter Errors => _files[2].Writer;
+
+    public void Add(IReadOnlyList<LineResult> lines)
+    {
+        foreach (var r in lines)
+        {
+            Jsonl.WriteLine(JsonSerializer.Serialize(new Dictionary<string, object>
+            {
+                ["source"] = r.Source,
+                ["line"] = r.Line,
+                ["text"] = r.Text,
+                ["confidence"] = Math.Round(r.Confidence, 4),
+                ["flagged"] = r.Flagged,
+                ["chars"] = r.Chars.Select(c => new Dictionary<string, object>
+                {
+                    ["char"] = c.Symbol,
+                    ["confidence"] = Math.Round(c.Confidence, 4),
+                }).ToArray(),
+                ["deskew_deg"] = Math.Round(r.DeskewDegrees, 2),
+                ["slant_deg"] = Math.Round(r.SlantDegrees, 2),
+            }, JsonLine));
+            Csv.WriteLine(string.Join(',',
+                CsvField(r.Source), r.Line.ToString(CultureInfo.InvariantCulture), CsvField(r.Text),
+                Math.Round(r.Confidence, 4).ToString(CultureInfo.InvariantCulture), r.Flagged ? "true" : "false",
+                Math.Round(r.DeskewDegrees, 2).ToString(CultureInfo.InvariantCulture),
+                Math.Round(r.SlantDegrees, 2).ToString(CultureInfo.InvariantCulture)));
+        }
+    }
+
+    public void AddError(InputException e) =>
+        Errors.WriteLine(JsonSerializer.Serialize(new Dictionary<string, string>
+        {
+            ["path"] = e.Path, ["stage"] = e.Stage, ["reason"] = e.Reason,
+        }, JsonLine));
+
+    /// <summary>Closes the streams and moves every report into place, the summary last.</summary>
+    public void Complete(IDictionary<string, object?> summary)
+    {
+        foreach (var f in _files)
+        {
+            f.Writer.Dispose();
+            File.Move(f.Temp, f.Final, overwrite: true);
+        }
+        var json = JsonSerializer.Serialize(summary, new JsonSerializerOptions(JsonLine) { WriteIndented = true });
+        AtomicFile.WriteAllText(Path.Combine(_dir, "summary.json"), json + "\n");
+    }
+
+    public void Dispose()
+    {
+        foreach (var f in _files)
+        {
+            f.Writer.Dispose();
+            if (File.Exists(f.Temp)) File.Delete(f.Temp);
+        }
+    }
+
+    /// <summary>RFC 4180 quoting; a leading formula character is defused so spreadsheets show text, not a formula.</summary>
+    internal static string CsvField(string value)
+    {
+        if (value.Length > 0 && "=+-@".Contains(value[0]) && !double.TryParse(value, NumberStyles.Float, CultureInfo.InvariantCulture, out _))
+            value = "'" + value;
+        return value.IndexOfAny([',', '"', '\n', '\r']) >= 0 ? "\"" + value.Replace("\"", "\"\"") + "\"" : value;
+    }
+}

@@ -1,0 +1,80 @@
+using HandLine.Features;
+using static TorchSharp.torch;
+
+namespace HandLine.Model;
+
+/// <summary>
+/// A loaded or freshly created model: its header, character set and network. The model stage's entry point
+/// for inference is <see cref="Run(IReadOnlyList{FeatureSequence})"/>: feature sequences in, posteriors out.
+/// </summary>
+public sealed class LineModel : IDisposable
+{
+    internal LineModel(ModelHeader header, CharacterSet charset, LineNetwork network, string id)
+    {
+        Header = header;
+        Charset = charset;
+        Network = network;
+        Id = id;
+    }
+
+    public ModelHeader Header { get; }
+    public CharacterSet Charset { get; }
+    public FeatureConfig Features => Header.Features;
+
+    /// <summary>First 12 hex digits of the file's SHA-256 ("unsaved" before the first save).</summary>
+    public string Id { get; }
+
+    internal LineNetwork Network { get; }
+
+    /// <summary>A new, randomly initialised model (seeded, so the same seed gives the same weights).</summary>
+    public static LineModel Create(CharacterSet charset, FeatureConfig features, NetworkConfig network, int seed)
+    {
+        ArgumentNullException.ThrowIfNull(charset);
+        features.Validate();
+        network.Validate();
+        TorchRuntime.Seed(seed);
+        var net = new LineNetwork(features.FrameDimension, network, charset.ClassCount);
+        var header = new ModelHeader(ModelHeader.CurrentFormatVersion, charset.ToString(), features, network,
+            Training: null, ValidationCer: null, CreatedUtc: DateTime.UtcNow.ToString("O"));
+        return new LineModel(header, charset, net, "unsaved");
+    }
+
+    /// <summary>Saves with an updated header; returns the new model id.</summary>
+    public string Save(string path, TrainingRecord? training, double? validationCer) =>
+        ModelFile.Save(path, Header with
+        {
+            Training = training ?? Header.Training,
+            ValidationCer = validationCer,
+            CreatedUtc = DateTime.UtcNow.ToString("O"),
+        }, Network);
+
+    /// <summary>Posteriors for one line.</summary>
+    public Posteriors Run(FeatureSequence line) => Run([line])[0];
+
+    /// <summary>Posteriors for several lines, computed as one padded batch.</summary>
+    public IReadOnlyList<Posteriors> Run(IReadOnlyList<FeatureSequence> lines)
+    {
+        ArgumentNullException.ThrowIfNull(lines);
+        if (lines.Count == 0) return [];
+        foreach (var l in lines)
+            if (l.Dimension != Features.FrameDimension)
+                throw new ArgumentException($"Feature dimension {l.Dimension} does not match the model's {Features.FrameDimension}.");
+
+        Network.eval();
+        using var noGrad = no_grad();
+        using var scope = NewDisposeScope();
+        var (frames, lengths) = Batching.Stack(lines);
+        var logProbs = Network.call(frames, lengths); // [T, B, C]
+        var classes = (int)logProbs.shape[2];
+        var result = new Posteriors[lines.Count];
+        for (var b = 0; b < lines.Count; b++)
+        {
+            var t = lines[b].Frames;
+            var data = logProbs[..t, b, ..].contiguous().data<float>().ToArray();
+            result[b] = new Posteriors(t, classes, data);
+        }
+        return result;
+    }
+
+    public void Dispose() => Network.Dispose();
+}

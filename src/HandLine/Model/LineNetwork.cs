@@ -1,0 +1,43 @@
+using TorchSharp;
+using TorchSharp.Modules;
+using static TorchSharp.torch;
+
+namespace HandLine.Model;
+
+/// <summary>
+/// Bidirectional LSTM over column frames, then a linear layer and log-softmax over the character set
+/// plus the CTC blank (class 0). Input [T, B, D] with per-item lengths; output log-probabilities [T, B, C].
+/// </summary>
+public sealed class LineNetwork : nn.Module<Tensor, Tensor, Tensor>
+{
+    private readonly LSTM lstm;
+    private readonly Dropout dropout;
+    private readonly Linear output;
+
+    public LineNetwork(int inputSize, NetworkConfig config, int classCount) : base(nameof(LineNetwork))
+    {
+        config.Validate();
+        lstm = nn.LSTM(inputSize, config.Hidden, numLayers: config.Layers, bidirectional: true,
+            dropout: config.Layers > 1 ? config.Dropout : 0);
+        dropout = nn.Dropout(config.Dropout);
+        output = nn.Linear(2 * config.Hidden, classCount);
+        RegisterComponents();
+    }
+
+    /// <param name="frames">[T, B, D] padded frames.</param>
+    /// <param name="lengths">[B] int64 frame counts, on the CPU.</param>
+    public override Tensor forward(Tensor frames, Tensor lengths)
+    {
+        // Packing keeps padding out of the backward direction, so a line reads the same alone or in a batch.
+        using var packed = nn.utils.rnn.pack_padded_sequence(frames, lengths, batch_first: false, enforce_sorted: false);
+        var (outPacked, h, c) = lstm.call(packed);
+        using (outPacked) using (h) using (c)
+        {
+            var (padded, _) = nn.utils.rnn.pad_packed_sequence(outPacked, batch_first: false, total_length: frames.shape[0]);
+            return output.call(dropout.call(padded)).log_softmax(2);
+        }
+    }
+
+    /// <summary>The output layer, exposed so fine-tuning can grow the character set.</summary>
+    internal Linear Output => output;
+}

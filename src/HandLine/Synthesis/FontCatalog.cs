@@ -1,0 +1,99 @@
+using SkiaSharp;
+
+namespace HandLine.Synthesis;
+
+/// <summary>
+/// The fonts found under a set of files and folders, in path order so every run sees the same list.
+/// A file that cannot be loaded is reported in <see cref="Errors"/> and the rest still load.
+/// </summary>
+public sealed class FontCatalog : IDisposable
+{
+    private static readonly string[] Extensions = [".ttf", ".otf", ".woff"];
+
+    private FontCatalog(IReadOnlyList<FontFace> fonts, IReadOnlyList<InputException> errors)
+    {
+        Fonts = fonts;
+        Errors = errors;
+    }
+
+    public IReadOnlyList<FontFace> Fonts { get; }
+
+    public IReadOnlyList<InputException> Errors { get; }
+
+    /// <summary>Loads font files and every .ttf/.otf/.woff below the given folders (recursively).</summary>
+    public static FontCatalog Load(IEnumerable<string> paths)
+    {
+        ArgumentNullException.ThrowIfNull(paths);
+        var errors = new List<InputException>();
+        var files = new SortedSet<string>(StringComparer.Ordinal);
+        foreach (var raw in paths)
+        {
+            ArgumentException.ThrowIfNullOrWhiteSpace(raw, nameof(paths));
+            var full = System.IO.Path.GetFullPath(raw);
+            if (Directory.Exists(full))
+            {
+                foreach (var f in Directory.EnumerateFiles(full, "*", SearchOption.AllDirectories))
+                    if (IsFontFile(f))
+                        files.Add(f);
+            }
+            else if (File.Exists(full))
+            {
+                files.Add(full);
+            }
+            else
+            {
+                errors.Add(new InputException(raw, "font", "no such file or folder"));
+            }
+        }
+
+        var fonts = new List<FontFace>();
+        foreach (var file in files)
+        {
+            var face = TryLoad(file, errors);
+            if (face is not null)
+                fonts.Add(face);
+        }
+        return new FontCatalog(fonts, errors);
+    }
+
+    private static bool IsFontFile(string path) =>
+        Extensions.Contains(System.IO.Path.GetExtension(path).ToLowerInvariant());
+
+    private static FontFace? TryLoad(string file, List<InputException> errors)
+    {
+        if (!IsFontFile(file))
+        {
+            errors.Add(new InputException(file, "font", "not a .ttf, .otf or .woff file"));
+            return null;
+        }
+        SKTypeface? typeface;
+        try
+        {
+            typeface = SKTypeface.FromFile(file);
+        }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException or ArgumentException)
+        {
+            errors.Add(new InputException(file, "font", "cannot be read", e));
+            return null;
+        }
+        if (typeface is null)
+        {
+            errors.Add(new InputException(file, "font", "not a font the renderer can load"));
+            return null;
+        }
+        var face = new FontFace(file, typeface);
+        if (face.CoveredDefaultCodePoints.Count == 0)
+        {
+            face.Dispose();
+            errors.Add(new InputException(file, "font", "has no glyphs for the character set"));
+            return null;
+        }
+        return face;
+    }
+
+    public void Dispose()
+    {
+        foreach (var f in Fonts)
+            f.Dispose();
+    }
+}

@@ -1,0 +1,99 @@
+using System.Globalization;
+using System.Text;
+using HandLine.Model;
+using SkiaSharp;
+
+namespace HandLine.Synthesis;
+
+/// <summary>
+/// One loaded font file. Owns its typeface. Safe to share between threads for reading:
+/// every render makes its own <see cref="SKFont"/>.
+/// </summary>
+public sealed class FontFace : IDisposable
+{
+    private readonly SKTypeface _typeface;
+    private readonly HashSet<int> _coveredDefault;
+
+    internal FontFace(string path, SKTypeface typeface)
+    {
+        Path = path;
+        Name = System.IO.Path.GetFileName(path);
+        _typeface = typeface;
+        // Computed once: line synthesis asks Covers for every line and every font.
+        _coveredDefault = new HashSet<int>();
+        using var font = new SKFont(typeface, 40);
+        foreach (var symbol in CharacterSet.Default.Symbols)
+        {
+            var rune = Rune.GetRuneAt(symbol, 0);
+            if (HasRealGlyph(font, rune))
+                _coveredDefault.Add(rune.Value);
+        }
+    }
+
+    /// <summary>File name, e.g. "Humor-Sans.ttf".</summary>
+    public string Name { get; }
+
+    /// <summary>Full path the font was loaded from.</summary>
+    public string Path { get; }
+
+    internal SKTypeface Typeface => _typeface;
+
+    /// <summary>Symbols of <see cref="CharacterSet.Default"/> this font can draw.</summary>
+    public IReadOnlySet<int> CoveredDefaultCodePoints => _coveredDefault;
+
+    /// <summary>
+    /// True when every code point of the text maps to a real glyph (glyph id not 0 and, for
+    /// non-whitespace, a non-empty outline). Whitespace always counts as covered.
+    /// </summary>
+    public bool Covers(string text)
+    {
+        ArgumentNullException.ThrowIfNull(text);
+        SKFont? font = null;
+        try
+        {
+            foreach (var rune in text.EnumerateRunes())
+            {
+                if (Rune.IsWhiteSpace(rune) || _coveredDefault.Contains(rune.Value))
+                    continue;
+                if (CharacterSet.Default.Contains(rune.ToString()))
+                    return false; // already checked when loaded
+                font ??= new SKFont(_typeface, 40);
+                if (!HasRealGlyph(font, rune))
+                    return false;
+            }
+            return true;
+        }
+        finally
+        {
+            font?.Dispose();
+        }
+    }
+
+    /// <summary>The code points of the text this font cannot draw, as "U+XXXX" labels.</summary>
+    public IReadOnlyList<string> MissingCodePoints(string text)
+    {
+        ArgumentNullException.ThrowIfNull(text);
+        var missing = new List<string>();
+        foreach (var rune in text.EnumerateRunes())
+            if (!Covers(rune.ToString()))
+                missing.Add(string.Create(CultureInfo.InvariantCulture, $"U+{rune.Value:X4}"));
+        return missing;
+    }
+
+    // Glyph 0 is ".notdef" (the box). Some fonts also map unsupported characters to an empty
+    // glyph, so a visible character must have an outline too.
+    private static bool HasRealGlyph(SKFont font, Rune rune)
+    {
+        var glyph = font.GetGlyph(rune.Value);
+        if (glyph == 0)
+            return false;
+        if (Rune.IsWhiteSpace(rune))
+            return true;
+        using var path = font.GetGlyphPath(glyph);
+        return path is not null && !path.IsEmpty && !path.Bounds.IsEmpty;
+    }
+
+    public void Dispose() => _typeface.Dispose();
+
+    public override string ToString() => Name;
+}

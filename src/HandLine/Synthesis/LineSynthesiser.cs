@@ -1,0 +1,180 @@
+using System.Globalization;
+using System.Text;
+using System.Text.Encodings.Web;
+using System.Text.Json;
+using HandLine.Imaging;
+using HandLine.Model;
+using HandLine.Scoring;
+
+namespace HandLine.Synthesis;
+
+/// <summary>
+/// Writes a training set of synthetic lines: <c>lines/NNNNNN.png</c>, the manifest <c>lines.tsv</c>
+/// (relative path, tab, transcript) and <c>degradations.jsonl</c>. The same request and seed give
+/// byte-identical files: all random choices are drawn in line order before the parallel rendering.
+/// </summary>
+public static class LineSynthesiser
+{
+    public const string ImagesFolder = "lines";
+    public const string ManifestName = "lines.tsv";
+    public const string DegradationsName = "degradations.jsonl";
+    private const int BatchSize = 256;
+
+    private static readonly JsonSerializerOptions Json = new()
+    {
+        PropertyNamingPolicy = JsonNamingPolicy.CamelCase,
+        // Keep £ and fractions readable in the log; quotes and controls are still escaped.
+        Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping,
+    };
+
+    private sealed record Plan(int Index, string RelativePath, string Text, FontFace Font, Degradation Degradation);
+
+    private sealed record DegradationRow(string Path, string Font, string Text, Degradation Degradation);
+
+    public static SynthesisSummary Generate(SynthesisRequest request, TextWriter? log)
+    {
+        ArgumentNullException.ThrowIfNull(request);
+        ArgumentNullException.ThrowIfNull(request.Fonts);
+        ArgumentOutOfRangeException.ThrowIfNegative(request.Count);
+        ArgumentException.ThrowIfNullOrWhiteSpace(request.OutDir);
+        if (request.Fonts.Fonts.Count == 0)
+            throw new ArgumentException("The font catalog has no usable fonts.", nameof(request));
+        var userTexts = request.Texts?.ToList();
+        if (userTexts is { Count: 0 })
+            throw new ArgumentException("The text list is empty.", nameof(request));
+        var ranges = request.Ranges ?? new DegradationRanges();
+
+        var outDir = Path.GetFullPath(request.OutDir);
+        var imageDir = Path.Combine(outDir, ImagesFolder);
+        Directory.CreateDirectory(imageDir);
+
+        var rng = new Random(request.Seed);
+        var generator = new PhraseGenerator(rng.Next());
+        var plans = new List<Plan>(request.Count);
+        var skipped = new List<SkippedLine>();
+        for (var i = 0; i < request.Count; i++)
+        {
+            var raw = userTexts is null ? generator.Next() : userTexts[i % userTexts.Count];
+            var text = TextUnits.ToNfc(raw ?? "").Trim();
+            var font = PickFont(text, request.Fonts, rng, out var reason);
+            if (font is null)
+            {
+                skipped.Add(new SkippedLine(i, text, reason!));
+                log?.WriteLine($"synthesis: line {i} skipped: {reason}");
+                continue;
+            }
+            var path = string.Create(CultureInfo.InvariantCulture, $"{ImagesFolder}/{plans.Count:D6}.png");
+            plans.Add(new Plan(i, path, text, font, Degradation.Sample(rng, ranges)));
+        }
+
+        for (var start = 0; start < plans.Count; start += BatchSize)
+        {
+            var end = Math.Min(plans.Count, start + BatchSize);
+            // Each render depends only on its plan, so the order of work does not change any byte.
+            Parallel.For(start, end, k => WriteImage(plans[k], outDir));
+            log?.WriteLine($"synthesis: {end}/{plans.Count} lines drawn");
+        }
+
+        var manifest = new StringBuilder();
+        manifest.Append(CultureInfo.InvariantCulture,
+            $"# synthetic lines: seed {request.Seed}, {plans.Count} lines, {request.Fonts.Fonts.Count} fonts\n");
+        var jsonl = new StringBuilder();
+        foreach (var p in plans)
+        {
+            manifest.Append(p.RelativePath).Append('\t').Append(p.Text).Append('\n');
+            jsonl.Append(JsonSerializer.Serialize(new DegradationRow(p.RelativePath, p.Font.Name, p.Text, p.Degradation), Json))
+                .Append('\n');
+        }
+        var manifestPath = Path.Combine(outDir, ManifestName);
+        var degradationsPath = Path.Combine(outDir, DegradationsName);
+        var utf8 = new UTF8Encoding(encoderShouldEmitUTF8Identifier: false);
+        WriteAtomically(manifestPath, utf8.GetBytes(manifest.ToString()));
+        WriteAtomically(degradationsPath, utf8.GetBytes(jsonl.ToString()));
+
+        var fontsUsed = new SortedDictionary<string, int>(StringComparer.Ordinal);
+        foreach (var p in plans)
+            fontsUsed[p.Font.Name] = fontsUsed.TryGetValue(p.Font.Name, out var n) ? n + 1 : 1;
+        var summary = new SynthesisSummary(
+            plans.Count, skipped, PhraseGenerator.CountSymbols(plans.Select(p => p.Text)), fontsUsed,
+            manifestPath, degradationsPath);
+        log?.WriteLine($"synthesis: wrote {summary.LinesWritten} lines, skipped {summary.LinesSkipped}, " +
+                       $"{fontsUsed.Count} fonts used");
+        return summary;
+    }
+
+    /// <summary>
+    /// Samples degradations and renders one line in memory with a random font that has every glyph
+    /// of the text; null when no font does. For on-the-fly training data.
+    /// </summary>
+    public static SyntheticLine? RenderOne(string text, FontCatalog fonts, Random rng, DegradationRanges ranges)
+    {
+        ArgumentNullException.ThrowIfNull(text);
+        ArgumentNullException.ThrowIfNull(fonts);
+        ArgumentNullException.ThrowIfNull(rng);
+        ArgumentNullException.ThrowIfNull(ranges);
+        var font = PickFont(text, fonts, rng, out _);
+        if (font is null)
+            return null;
+        var d = Degradation.Sample(rng, ranges);
+        return new SyntheticLine(text, font, d, LineRenderer.Render(text, font, d));
+    }
+
+    /// <summary>8-bit greyscale PNG of a luminance image.</summary>
+    public static byte[] EncodePng(GrayImage image)
+    {
+        ArgumentNullException.ThrowIfNull(image);
+        return RasterOps.EncodePng(image.Pixels, image.Width, image.Height);
+    }
+
+    /// <summary>A font drawn at random among those with real glyphs for all of the text.</summary>
+    private static FontFace? PickFont(string text, FontCatalog fonts, Random rng, out string? reason)
+    {
+        if (text.Length == 0)
+        {
+            reason = "empty line";
+            return null;
+        }
+        var covering = fonts.Fonts.Where(f => f.Covers(text)).ToList();
+        if (covering.Count == 0)
+        {
+            var missing = text.EnumerateRunes()
+                .Where(r => !fonts.Fonts.Any(f => f.Covers(r.ToString())))
+                .Select(r => string.Create(CultureInfo.InvariantCulture, $"U+{r.Value:X4}"))
+                .Distinct()
+                .ToList();
+            reason = missing.Count > 0
+                ? $"no font has glyphs for {string.Join(" ", missing)}"
+                : "no single font has glyphs for all of the line";
+            return null;
+        }
+        if (!CharacterSet.Default.CanEncode(text))
+        {
+            reason = "characters outside the model's character set";
+            return null;
+        }
+        reason = null;
+        return covering[rng.Next(covering.Count)];
+    }
+
+    private static void WriteImage(Plan plan, string outDir)
+    {
+        var image = LineRenderer.Render(plan.Text, plan.Font, plan.Degradation);
+        WriteAtomically(Path.Combine(outDir, plan.RelativePath), EncodePng(image));
+    }
+
+    /// <summary>Temp file in the same folder then rename, so readers never see half a file.</summary>
+    private static void WriteAtomically(string path, byte[] bytes)
+    {
+        var temp = path + ".tmp";
+        try
+        {
+            File.WriteAllBytes(temp, bytes);
+            File.Move(temp, path, overwrite: true);
+        }
+        finally
+        {
+            if (File.Exists(temp))
+                File.Delete(temp);
+        }
+    }
+}

@@ -1,0 +1,65 @@
+using System.Text;
+using System.Text.Json;
+using System.Text.Json.Serialization;
+using HandLine.Model;
+using TorchSharp.Modules;
+
+namespace HandLine.Training;
+
+/// <summary>Where a run stands, so an interrupted run can continue exactly where it stopped.</summary>
+public sealed record TrainingState(
+    [property: JsonPropertyName("epoch")] int Epoch,
+    [property: JsonPropertyName("batch")] int Batch,
+    [property: JsonPropertyName("lines_seen")] long LinesSeen,
+    [property: JsonPropertyName("batches_done")] long BatchesDone,
+    [property: JsonPropertyName("minutes")] double Minutes,
+    [property: JsonPropertyName("learning_rate")] double LearningRate,
+    [property: JsonPropertyName("best_cer")] double BestCer,
+    [property: JsonPropertyName("epochs_since_best")] int EpochsSinceBest,
+    [property: JsonPropertyName("epoch_loss_sum")] double EpochLossSum);
+
+/// <summary>
+/// A checkpoint file: magic, JSON state, network weights, optimiser state. Written atomically, so a run killed
+/// while saving keeps the previous checkpoint.
+/// </summary>
+internal static class Checkpoint
+{
+    private static readonly byte[] Magic = "HLCHECK1"u8.ToArray();
+
+    // The best CER starts as +Infinity, which plain JSON numbers cannot carry.
+    private static readonly JsonSerializerOptions Json = new() { NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals };
+
+    public static string PathFor(string modelPath) => modelPath + ".checkpoint";
+
+    public static void Save(string path, TrainingState state, LineNetwork network, Adam optimizer)
+    {
+        using var ms = new MemoryStream();
+        using (var w = new BinaryWriter(ms, Encoding.UTF8, leaveOpen: true))
+        {
+            w.Write(Magic);
+            w.Write(JsonSerializer.Serialize(state, Json));
+            network.save(w);
+            optimizer.save_state_dict(w);
+        }
+        AtomicFile.WriteAllBytes(path, ms.ToArray());
+    }
+
+    public static TrainingState Load(string path, LineNetwork network, Adam optimizer)
+    {
+        try
+        {
+            using var r = new BinaryReader(File.OpenRead(path), Encoding.UTF8);
+            if (!r.ReadBytes(Magic.Length).AsSpan().SequenceEqual(Magic))
+                throw new InputException(path, "checkpoint", "not a HandLine training checkpoint");
+            var state = JsonSerializer.Deserialize<TrainingState>(r.ReadString(), Json)
+                        ?? throw new InputException(path, "checkpoint", "checkpoint state is empty");
+            network.load(r, strict: true);
+            optimizer.load_state_dict(r);
+            return state;
+        }
+        catch (Exception e) when (e is IOException or JsonException or ArgumentException or InvalidOperationException)
+        {
+            throw new InputException(path, "checkpoint", $"cannot resume from this checkpoint: {e.Message}", e);
+        }
+    }
+}

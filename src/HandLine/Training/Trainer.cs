@@ -1,0 +1,230 @@
+using System.Diagnostics;
+using System.Globalization;
+using HandLine.Decoding;
+using HandLine.Model;
+using HandLine.Scoring;
+using TorchSharp;
+using TorchSharp.Modules;
+using static TorchSharp.torch;
+
+namespace HandLine.Training;
+
+/// <summary>Outcome of a training run.</summary>
+public sealed record TrainingResult(double BestValidationCer, int Epochs, long LinesSeen, double Minutes, bool StoppedEarly, string? ModelId);
+
+/// <summary>
+/// CTC training (Graves et al. 2006) with Adam, gradient clipping, step-size halving on plateaus, validation
+/// CER after every epoch, the best model kept at the output path, early stopping, and checkpoints that let an
+/// interrupted run resume and end exactly as an uninterrupted one would (same seed, same thread count).
+/// </summary>
+public sealed class Trainer
+{
+    private readonly TextWriter _progress;
+    private readonly bool _interactive;
+
+    public Trainer(TextWriter progress, bool interactive = false)
+    {
+        _progress = progress;
+        _interactive = interactive;
+    }
+
+    public TrainingResult Train(
+        LineModel model,
+        IReadOnlyList<LineSample> train,
+        IReadOnlyList<LineSample> valid,
+        string outPath,
+        TrainingOptions options,
+        TrainingRecord recipe,
+        CancellationToken cancel = default)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        options.Validate();
+        if (train.Count == 0) throw new ArgumentException("no training lines");
+        if (valid.Count == 0) throw new ArgumentException("no validation lines");
+        TorchRuntime.SetThreads(options.Threads);
+
+        var network = model.Network;
+        using var optimizer = optim.Adam(network.parameters(), lr: options.LearningRate);
+        var checkpointPath = Checkpoint.PathFor(outPath);
+        var logPath = outPath + ".log.csv";
+        var state = new TrainingState(0, 0, 0, 0, 0, options.LearningRate, double.PositiveInfinity, 0, 0);
+        if (options.Resume && File.Exists(checkpointPath))
+        {
+            state = Checkpoint.Load(checkpointPath, network, optimizer);
+            _progress.WriteLine($"resuming at epoch {state.Epoch + 1}, batch {state.Batch}, {state.LinesSeen} lines seen");
+        }
+        else if (File.Exists(logPath))
+        {
+            File.Delete(logPath);
+        }
+        SetLearningRate(optimizer, state.LearningRate);
+
+        var batchesPerEpoch = (train.Count + options.BatchSize - 1) / options.BatchSize;
+        var clock = Stopwatch.StartNew();
+        var startMinutes = state.Minutes;
+        var lastCheckpoint = clock.Elapsed;
+        var linesAtStart = state.LinesSeen;
+        var stopped = false;
+        string? bestId = null;
+        double Minutes() => startMinutes + clock.Elapsed.TotalMinutes;
+
+        while (state.Epoch < options.Epochs && !stopped)
+        {
+            var batches = BatchOrder(train, options.BatchSize, options.Seed, state.Epoch);
+            for (var b = state.Batch; b < batches.Count; b++)
+            {
+                var loss = Step(network, optimizer, batches[b], options, state.Epoch, b);
+                state = state with
+                {
+                    Batch = b + 1,
+                    LinesSeen = state.LinesSeen + batches[b].Length,
+                    BatchesDone = state.BatchesDone + 1,
+                    EpochLossSum = state.EpochLossSum + loss,
+                    Minutes = Minutes(),
+                };
+                if (b % 10 == 0 || b == batches.Count - 1)
+                    Report(state, batchesPerEpoch, options, loss, clock.Elapsed.TotalSeconds, state.LinesSeen - linesAtStart);
+                var outOfTime = options.MaxMinutes > 0 && Minutes() >= options.MaxMinutes;
+                var outOfBatches = options.MaxBatches > 0 && state.BatchesDone >= options.MaxBatches;
+                if (outOfTime || outOfBatches || cancel.IsCancellationRequested)
+                {
+                    stopped = true;
+                    break;
+                }
+                if ((clock.Elapsed - lastCheckpoint).TotalMinutes >= options.CheckpointMinutes)
+                {
+                    Checkpoint.Save(checkpointPath, state, network, optimizer);
+                    lastCheckpoint = clock.Elapsed;
+                }
+            }
+            if (stopped && state.Batch < batches.Count)
+            {
+                Checkpoint.Save(checkpointPath, state, network, optimizer);
+                break; // the epoch is unfinished: it is validated when a resumed run completes it
+            }
+
+            var cer = Validate(model, valid);
+            var meanLoss = state.EpochLossSum / Math.Max(1, batches.Count);
+            var improved = cer < state.BestCer;
+            var sinceBest = improved ? 0 : state.EpochsSinceBest + 1;
+            var lr = state.LearningRate;
+            if (!improved && sinceBest % options.PlateauEpochs == 0) lr /= 2;
+            state = state with
+            {
+                Epoch = state.Epoch + 1, Batch = 0, EpochLossSum = 0, BestCer = Math.Min(cer, state.BestCer),
+                EpochsSinceBest = sinceBest, LearningRate = lr, Minutes = Minutes(),
+            };
+            SetLearningRate(optimizer, lr);
+            AppendLog(logPath, state, meanLoss, cer, batchesPerEpoch);
+            _progress.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"epoch {state.Epoch}/{options.Epochs}: mean loss {meanLoss:F3}, validation CER {cer:P2}{(improved ? " (best, saved)" : "")}, step size {lr:G3}"));
+            if (improved)
+                bestId = model.Save(outPath, recipe with { Epochs = state.Epoch, LinesSeen = state.LinesSeen, Minutes = Math.Round(state.Minutes, 1) }, Math.Round(cer, 5));
+            Checkpoint.Save(checkpointPath, state, network, optimizer);
+            if (sinceBest >= options.Patience)
+            {
+                _progress.WriteLine($"no better validation CER for {sinceBest} epochs: stopping early");
+                break;
+            }
+        }
+        return new TrainingResult(state.BestCer, state.Epoch, state.LinesSeen, state.Minutes, stopped, bestId);
+    }
+
+    /// <summary>Validation CER with greedy decoding, over code points (the same measure as `score`).</summary>
+    public static double Validate(LineModel model, IReadOnlyList<LineSample> valid)
+    {
+        long errors = 0, chars = 0;
+        foreach (var chunk in valid.Chunk(32))
+        {
+            var posteriors = model.Run(chunk.Select(s => s.Features).ToArray());
+            for (var i = 0; i < chunk.Length; i++)
+            {
+                var hyp = GreedyDecoder.Decode(posteriors[i], model.Charset).Text;
+                errors += EditDistance.Align<int>(TextUnits.CodePoints(chunk[i].Text), TextUnits.CodePoints(hyp)).Distance;
+                chars += chunk[i].Target.Length;
+            }
+        }
+        return errors / (double)Math.Max(1, chars);
+    }
+
+    /// <summary>Mean CTC loss per line over a set, without training (for reports and tests).</summary>
+    public static double MeanLoss(LineModel model, IReadOnlyList<LineSample> lines)
+    {
+        model.Network.eval();
+        using var noGrad = no_grad();
+        double sum = 0;
+        foreach (var chunk in lines.Chunk(32))
+        {
+            using var scope = NewDisposeScope();
+            sum += CtcLoss(model.Network, chunk).item<float>() * chunk.Length;
+        }
+        return sum / Math.Max(1, lines.Count);
+    }
+
+    private static Tensor CtcLoss(LineNetwork network, IReadOnlyList<LineSample> batch)
+    {
+        var (frames, lengths) = Batching.Stack(batch.Select(s => s.Features).ToArray());
+        var logProbs = network.call(frames, lengths);
+        var targets = tensor(batch.SelectMany(s => s.Target.Select(c => (long)c)).ToArray());
+        var targetLengths = tensor(batch.Select(s => (long)s.Target.Length).ToArray());
+        // zero_infinity: a line whose label cannot fit its frames contributes nothing instead of NaN.
+        return nn.functional.ctc_loss(logProbs, targets, lengths, targetLengths, blank: 0, zero_infinity: true);
+    }
+
+    private static float Step(LineNetwork network, Adam optimizer, IReadOnlyList<LineSample> batch, TrainingOptions options, int epoch, int index)
+    {
+        using var scope = NewDisposeScope();
+        // Dropout draws from torch's generator: seed it per batch so a resumed run repeats the same masks.
+        torch.manual_seed(((long)options.Seed * 1_000_003L) + (epoch * 100_003L) + index);
+        optimizer.zero_grad();
+        network.train();
+        var loss = CtcLoss(network, batch);
+        loss.backward();
+        nn.utils.clip_grad_norm_(network.parameters(), options.ClipNorm);
+        optimizer.step();
+        return loss.item<float>();
+    }
+
+    /// <summary>Batches of similar width (less padding), in an order shuffled per epoch from the seed.</summary>
+    internal static List<LineSample[]> BatchOrder(IReadOnlyList<LineSample> train, int batchSize, int seed, int epoch)
+    {
+        var rng = new Random(HashCode.Combine(seed, epoch));
+        // Sort by width with a random tie-break so bucket membership varies between epochs.
+        var order = train.Select((s, i) => (s, key: s.Features.Frames + rng.NextDouble() * 8, i))
+            .OrderBy(x => x.key).ThenBy(x => x.i).Select(x => x.s).ToArray();
+        var batches = order.Chunk(batchSize).ToList();
+        for (var i = batches.Count - 1; i > 0; i--)
+        {
+            var j = rng.Next(i + 1);
+            (batches[i], batches[j]) = (batches[j], batches[i]);
+        }
+        return batches;
+    }
+
+    private static void SetLearningRate(Adam optimizer, double lr)
+    {
+        foreach (var g in optimizer.ParamGroups) g.LearningRate = lr;
+    }
+
+    private void Report(TrainingState s, int batchesPerEpoch, TrainingOptions o, float loss, double seconds, long lines)
+    {
+        var rate = lines / Math.Max(1e-6, seconds);
+        var remainingBatches = ((long)(o.Epochs - s.Epoch) * batchesPerEpoch) - s.Batch;
+        var eta = TimeSpan.FromSeconds(remainingBatches * o.BatchSize / Math.Max(1e-6, rate));
+        if (o.MaxMinutes > 0) eta = TimeSpan.FromMinutes(Math.Min(eta.TotalMinutes, Math.Max(0, o.MaxMinutes - s.Minutes)));
+        var best = double.IsInfinity(s.BestCer) ? "-" : s.BestCer.ToString("P2", CultureInfo.InvariantCulture);
+        var line = string.Create(CultureInfo.InvariantCulture,
+            $"epoch {s.Epoch + 1}/{o.Epochs} batch {s.Batch}/{batchesPerEpoch} loss {loss:F3} best CER {best} {rate:F1} lines/s ETA {eta:hh\\:mm\\:ss}");
+        if (_interactive) _progress.Write("\r" + line.PadRight(100));
+        else if (s.Batch % 200 == 1 || s.Batch == batchesPerEpoch) _progress.WriteLine(line);
+    }
+
+    private static void AppendLog(string path, TrainingState s, double loss, double cer, int batchesPerEpoch)
+    {
+        var header = !File.Exists(path);
+        using var w = new StreamWriter(path, append: true);
+        if (header) w.WriteLine("epoch,lines_seen,minutes,mean_loss,valid_cer,learning_rate,batches_per_epoch");
+        w.WriteLine(string.Create(CultureInfo.InvariantCulture,
+            $"{s.Epoch},{s.LinesSeen},{s.Minutes:F2},{loss:F4},{cer:F5},{s.LearningRate:G4},{batchesPerEpoch}"));
+    }
+}

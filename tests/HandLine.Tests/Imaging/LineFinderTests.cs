@@ -1,0 +1,92 @@
+using HandLine.Imaging;
+using Xunit;
+using static HandLine.Tests.Imaging.ImagingTestSupport;
+
+namespace HandLine.Tests.Imaging;
+
+public sealed class LineFinderTests
+{
+    private static readonly ImagingOptions Defaults = new();
+
+    // Invented entries from a fictional estate's account book.
+    private static readonly string[] Entries =
+    [
+        EstateLine,
+        "Paid Jas. Orrinwell for thatching 0 12 0",
+        "Sold 2 ewes at Lammas fair 1 1 0",
+    ];
+
+    [Fact]
+    public void Page_of_three_lines_splits_into_three_regions_in_order()
+    {
+        var lines = Entries.Select(t => Render(t, padding: 6)).ToArray();
+        const int gap = 14;
+        var page = Stack(lines, gap);
+
+        var regions = LineFinder.Split(page, Defaults);
+
+        Assert.Equal(3, regions.Count);
+        int top = 0;
+        for (int i = 0; i < 3; i++)
+        {
+            // The region must hold all of line i's ink and none of its neighbours'.
+            var (_, inkTop, _, inkBottom) = Bounds(Invert(lines[i]), 0.5f)!.Value;
+            Assert.InRange(regions[i].Top, i == 0 ? 0 : top - gap, top + inkTop);
+            Assert.InRange(regions[i].Bottom, top + inkBottom, top + lines[i].Height + gap - 1);
+            Assert.Equal(regions[i].Bottom - regions[i].Top + 1, regions[i].Image.Height);
+            Assert.InRange(regions[i].Image.Width, page.Width, page.Width + 4); // a little wider if the page was turned
+            top += lines[i].Height + gap;
+        }
+    }
+
+    [Fact]
+    public void Regions_normalise_to_the_same_lines()
+    {
+        var lines = Entries.Select(t => Render(t, padding: 6)).ToArray();
+        var regions = LineFinder.Split(Stack(lines, 14), Defaults);
+        for (int i = 0; i < lines.Length; i++)
+        {
+            int expected = LineNormaliser.Normalise(lines[i], Defaults).Ink.Width;
+            int actual = LineNormaliser.Normalise(regions[i].Image, Defaults).Ink.Width;
+            // One row more or less of ink height (a tiny page turn, resampling) changes the scale by ~4 %.
+            Assert.InRange(actual, expected * 0.95, expected * 1.05);
+        }
+    }
+
+    [Fact]
+    public void Turned_page_is_deskewed_before_splitting()
+    {
+        var lines = Entries.Select(t => Render(t, padding: 6)).ToArray();
+        var page = Stack(lines, 20);
+        // Turn the whole page 3° counter-clockwise (undoing −3° turns it that way), paper-white corners.
+        var turn = UprightTransform.Rotation(page, -3);
+        var (x0, y0, x1, y1) = turn.Bounds(0, 0, page.Width - 1, page.Height - 1);
+        var turned = turn.Render(page, Math.Floor(x0), Math.Floor(y0), (int)Math.Ceiling(x1 - x0) + 1, (int)Math.Ceiling(y1 - y0) + 1, 1f);
+
+        var regions = LineFinder.Split(turned, Defaults);
+
+        Assert.Equal(3, regions.Count);
+        Assert.True(regions[0].Bottom < regions[1].Top && regions[1].Bottom < regions[2].Top);
+        for (int i = 0; i < 3; i++)
+        {
+            int expected = LineNormaliser.Normalise(lines[i], Defaults).Ink.Width;
+            int actual = LineNormaliser.Normalise(regions[i].Image, Defaults).Ink.Width;
+            Assert.InRange(actual, expected * 0.95, expected * 1.05);
+        }
+    }
+
+    [Fact]
+    public void Single_line_gives_exactly_one_region()
+    {
+        // "ij" dots and a lone line with descenders must not split into fragments.
+        var line = Render("jiggling quill pen, Jas. Orrinwell", padding: 10);
+        var regions = LineFinder.Split(line, Defaults);
+        Assert.Single(regions);
+    }
+
+    [Fact]
+    public void Blank_page_gives_no_regions()
+    {
+        Assert.Empty(LineFinder.Split(GrayImage.Filled(400, 300, 1f), Defaults));
+    }
+}

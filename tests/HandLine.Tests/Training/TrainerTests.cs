@@ -1,0 +1,86 @@
+using HandLine.Features;
+using HandLine.Model;
+using HandLine.Training;
+
+namespace HandLine.Tests.Training;
+
+public sealed class TrainerTests : IDisposable
+{
+    private readonly string _dir = Directory.CreateTempSubdirectory("hl-train-").FullName;
+
+    public void Dispose() => Directory.Delete(_dir, recursive: true);
+
+    /// <summary>Lines of 'a'/'b' where each symbol is three frames of its own pattern and gaps are background.</summary>
+    internal static List<LineSample> PatternLines(int count, int seed)
+    {
+        var charset = CharacterSet.FromString("ab");
+        var rng = new Random(seed);
+        var lines = new List<LineSample>();
+        for (var n = 0; n < count; n++)
+        {
+            var text = new string(Enumerable.Range(0, rng.Next(2, 6)).Select(_ => rng.Next(2) == 0 ? 'a' : 'b').ToArray());
+            var frames = new List<float[]>();
+            foreach (var ch in text)
+            {
+                frames.Add(new float[8]);
+                for (var k = 0; k < 3; k++)
+                    frames.Add(Enumerable.Range(0, 8).Select(i => (ch == 'a' ? i < 4 : i >= 4) ? 0.8f + 0.2f * (float)rng.NextDouble() : 0f).ToArray());
+            }
+            frames.Add(new float[8]);
+            lines.Add(new LineSample($"l{n}", text, new FeatureSequence(frames.Count, 8, frames.SelectMany(f => f).ToArray()), charset.Encode(text)));
+        }
+        return lines;
+    }
+
+    private static LineModel Model() =>
+        LineModel.Create(CharacterSet.FromString("ab"), new FeatureConfig(LineHeight: 8, FrameStride: 1), new NetworkConfig(12, 1, 0), seed: 9);
+
+    [Fact]
+    public void AFewStepsOnSixtyFourLinesLowerTheCtcLoss()
+    {
+        using var model = Model();
+        var lines = PatternLines(64, 1);
+        var before = Trainer.MeanLoss(model, lines);
+        new Trainer(TextWriter.Null).Train(model, lines, lines.Take(8).ToList(), Path.Combine(_dir, "m.hlm"),
+            new TrainingOptions { Epochs = 3, BatchSize = 8, LearningRate = 0.01, Seed = 4, Threads = 1 },
+            new TrainingRecord("test", [], null, 4, 0, 0, 0, null));
+        var after = Trainer.MeanLoss(model, lines);
+        Assert.True(after < before * 0.7, $"loss {before:F3} -> {after:F3}");
+        Assert.True(File.Exists(Path.Combine(_dir, "m.hlm")));
+        Assert.True(File.Exists(Path.Combine(_dir, "m.hlm.log.csv")));
+    }
+
+    [Fact]
+    public void InterruptedThenResumedTrainingEqualsUninterruptedTraining()
+    {
+        var lines = PatternLines(64, 2);
+        var probe = PatternLines(4, 3);
+        var record = new TrainingRecord("test", [], null, 6, 0, 0, 0, null);
+        TrainingOptions Options(long maxBatches, bool resume) =>
+            new() { Epochs = 2, BatchSize = 8, LearningRate = 0.01, Seed = 6, Threads = 1, MaxBatches = maxBatches, Resume = resume };
+
+        using var straight = Model();
+        new Trainer(TextWriter.Null).Train(straight, lines, probe, Path.Combine(_dir, "a.hlm"), Options(6, false), record);
+
+        using (var first = Model())
+            new Trainer(TextWriter.Null).Train(first, lines, probe, Path.Combine(_dir, "b.hlm"), Options(3, false), record);
+        using var resumed = Model(); // fresh weights: everything must come from the checkpoint
+        new Trainer(TextWriter.Null).Train(resumed, lines, probe, Path.Combine(_dir, "b.hlm"), Options(6, true), record);
+
+        foreach (var p in probe)
+            Assert.Equal(straight.Run(p.Features).LogProbs, resumed.Run(p.Features).LogProbs);
+    }
+
+    [Fact]
+    public void BatchesGroupSimilarWidthsAndDependOnlyOnSeedAndEpoch()
+    {
+        var lines = PatternLines(40, 5);
+        var a = Trainer.BatchOrder(lines, 8, seed: 1, epoch: 0);
+        var b = Trainer.BatchOrder(lines, 8, seed: 1, epoch: 0);
+        Assert.Equal(a.Select(x => x.Select(s => s.Id)), b.Select(x => x.Select(s => s.Id)));
+        Assert.Equal(40, a.Sum(x => x.Length));
+        // Bucketing: a batch's width spread is small compared with the spread of the whole set.
+        var wholeSpread = lines.Max(l => l.Features.Frames) - lines.Min(l => l.Features.Frames);
+        Assert.All(a, batch => Assert.True(batch.Max(s => s.Features.Frames) - batch.Min(s => s.Features.Frames) <= wholeSpread / 2 + 8));
+    }
+}
