@@ -62,8 +62,21 @@ public static class TextUnits
                 repaired.Append(rune.ToString());
             s = repaired.ToString();
         }
-        return s.Normalize(NormalizationForm.FormC);
+        try
+        {
+            return s.Normalize(NormalizationForm.FormC);
+        }
+        catch (ArgumentException)
+        {
+            // .NET refuses noncharacters (U+FDD0..U+FDEF, U+xFFFE, U+xFFFF); score them as U+FFFD like broken surrogates.
+            var repaired = new StringBuilder(s.Length);
+            foreach (var rune in s.EnumerateRunes())
+                repaired.Append(IsNoncharacter(rune.Value) ? "\uFFFD" : rune.ToString());
+            return repaired.ToString().Normalize(NormalizationForm.FormC);
+        }
     }
+
+    private static bool IsNoncharacter(int cp) => cp is >= 0xFDD0 and <= 0xFDEF || (cp & 0xFFFE) == 0xFFFE;
 
     /// <summary>True when every surrogate is part of a pair.</summary>
     internal static bool IsWellFormed(string s)
