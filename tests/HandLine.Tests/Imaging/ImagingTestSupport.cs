@@ -14,13 +14,7 @@ internal static class ImagingTestSupport
         return SKTypeface.FromFile(path) ?? throw new InvalidOperationException($"Cannot load font {path}");
     });
 
-    public static string RepoRoot()
-    {
-        for (var dir = new DirectoryInfo(AppContext.BaseDirectory); dir is not null; dir = dir.Parent)
-            if (File.Exists(Path.Combine(dir.FullName, "HandLine.sln")))
-                return dir.FullName;
-        throw new InvalidOperationException("HandLine.sln not found above " + AppContext.BaseDirectory);
-    }
+    public static string RepoRoot() => TestPaths.RepoRoot;
 
     /// <summary>
     /// Luminance image of <paramref name="text"/>, turned counter-clockwise by <paramref name="rotateDegrees"/>

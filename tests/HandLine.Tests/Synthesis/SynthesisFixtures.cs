@@ -8,7 +8,7 @@ internal static class SynthesisFixtures
 {
     private static readonly Lazy<FontCatalog> LazyCatalog = new(() => FontCatalog.Load([FontsDir]));
 
-    public static string RepoRoot { get; } = FindRepoRoot();
+    public static string RepoRoot => TestPaths.RepoRoot;
 
     public static string FontsDir => Path.Combine(RepoRoot, "fixtures", "fonts");
 
@@ -42,13 +42,5 @@ internal static class SynthesisFixtures
         var dir = Path.Combine(Path.GetTempPath(), "handline-synth-" + Guid.NewGuid().ToString("N"));
         Directory.CreateDirectory(dir);
         return dir;
-    }
-
-    private static string FindRepoRoot()
-    {
-        for (var dir = new DirectoryInfo(AppContext.BaseDirectory); dir is not null; dir = dir.Parent)
-            if (File.Exists(Path.Combine(dir.FullName, "HandLine.sln")))
-                return dir.FullName;
-        throw new InvalidOperationException("HandLine.sln not found above " + AppContext.BaseDirectory);
     }
 }
