@@ -25,9 +25,10 @@ public static class LinePreparation
     };
 
     /// <summary>Normalises a luminance line image and extracts its features.</summary>
-    public static PreparedLine Prepare(GrayImage luminance, FeatureConfig features, ImagingOptions imaging)
+    /// <param name="nameForErrors">The image's path, named in any <see cref="InputException"/>.</param>
+    public static PreparedLine Prepare(GrayImage luminance, FeatureConfig features, ImagingOptions imaging, string nameForErrors = "line image")
     {
-        var line = LineNormaliser.Normalise(luminance, imaging);
+        var line = LineNormaliser.Normalise(luminance, imaging, nameForErrors);
         return new PreparedLine(line, ColumnFeatures.Extract(line, features));
     }
 }
