@@ -7,5 +7,12 @@ var root = new RootCommand("HandLine: transcribe scanned handwritten text lines,
     ScoreCommand.Create(),
     SynthCommand.Create(),
     TrainCommand.Create(),
+    MergeCommand.Create(),
+    BenchBatchCommand.Create(),
 };
-return root.Parse(args).Invoke();
+var parse = root.Parse(args);
+// Ctrl+C or SIGTERM cancels the token; the command then finishes its current item and writes consistent
+// outputs. The library's default would give up on it after 2 s and end the process mid-write.
+var exit = await parse.InvokeAsync(new InvocationConfiguration { ProcessTerminationTimeout = TimeSpan.FromMinutes(1) });
+// Bad arguments are the documented exit code 2 (the parser's own default is 1).
+return parse.Errors.Count > 0 ? ExitCodes.Failed : exit;

@@ -19,5 +19,11 @@ internal static class CommandRunner
             Console.Error.WriteLine($"error: {e.Message}");
             return ExitCodes.Failed;
         }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+        {
+            // The output side failed (folder not writable, disk full): the whole command cannot go on.
+            Console.Error.WriteLine($"error: {e.Message}");
+            return ExitCodes.Failed;
+        }
     }
 }

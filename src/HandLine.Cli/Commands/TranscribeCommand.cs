@@ -1,5 +1,6 @@
 using System.CommandLine;
 using HandLine.Batch;
+using HandLine.Model;
 
 namespace HandLine.Cli.Commands;
 
@@ -29,16 +30,26 @@ internal static class TranscribeCommand
         {
             inputs, outDir, model, flagBelow,
         };
+        var batch = BatchCommandOptions.AddTo(command, transcribing: true);
         command.SetAction((parse, cancel) =>
         {
             var options = new TranscribeOptions(
                 parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow));
-            return Task.FromResult(CommandRunner.Guard(() =>
+            // On a worker thread, so the action's task exists at once and Ctrl+C reaches the cancellation token.
+            return Task.Run(() => CommandRunner.Guard(() =>
             {
-                var s = TranscribeRun.Run(parse.GetValue(inputs)!, options, Console.Error, cancel);
-                Console.Error.WriteLine(
+                TorchRuntime.SetThreads(batch.Threads(parse));
+                var s = TranscribeRun.Run(parse.GetValue(inputs)!, options, batch.Read(parse), Console.Error, cancel);
+                var say = batch.Quiet(parse) ? TextWriter.Null : Console.Error;
+                say.WriteLine(
                     $"{s.Sources} sources, {s.Lines} lines, {s.Flagged} flagged, {s.Errors} errors in {s.Seconds:F1} s (model {s.ModelId}); reports in {options.OutDir}");
-                if (cancel.IsCancellationRequested) return ExitCodes.Cancelled;
+                if (s.Reused > 0)
+                    say.WriteLine($"{s.Reused} sources reused from the journal of an earlier run in {options.OutDir}");
+                if (s.Cancelled)
+                {
+                    say.WriteLine("stopped on request; run the same command again to continue where it stopped");
+                    return ExitCodes.Cancelled;
+                }
                 return s.HasErrors ? ExitCodes.CompletedWithErrors : ExitCodes.Ok;
             }));
         });

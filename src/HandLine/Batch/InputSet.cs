@@ -54,9 +54,10 @@ public static class InputSet
 
         void Add(SourceImage s)
         {
-            // Two inputs with the same relative path would write the same output files.
-            if (seen.Add(s.Source)) sources.Add(s);
-            else errors.Add(new InputException(s.FullPath, "read", $"another input already produces outputs named '{s.Source}'"));
+            // Two inputs with the same text-file name ("a.png" and "a.jpg" both give "a.txt") would overwrite each other.
+            var output = TranscriptFile.RelativePathFor(s.Source);
+            if (seen.Add(output)) sources.Add(s);
+            else errors.Add(new InputException(s.FullPath, "read", $"another input already writes '{output}'"));
         }
     }
 }

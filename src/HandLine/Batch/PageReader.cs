@@ -27,9 +27,14 @@ public sealed class PageReader
 
     public ImagingOptions Imaging => _imaging;
 
-    public IReadOnlyList<LineResult> Read(SourceImage source)
+    public IReadOnlyList<LineResult> Read(SourceImage source) => Read(source, ImageLoader.ReadFile(source.FullPath, _imaging));
+
+    /// <summary>Reads an image whose file the caller has already read (the batch hashes the same bytes).</summary>
+    public IReadOnlyList<LineResult> Read(SourceImage source, byte[] imageBytes)
     {
-        var page = ImageLoader.Load(source.FullPath, _imaging);
+        ArgumentNullException.ThrowIfNull(source);
+        ArgumentNullException.ThrowIfNull(imageBytes);
+        var page = ImageLoader.Load(imageBytes, source.FullPath, _imaging);
         var prepared = LineFinder.Split(page, _imaging)
             .Select(region => LinePreparation.Prepare(region.Image, _model.Features, _imaging))
             .Where(p => p.Line.HasInk)

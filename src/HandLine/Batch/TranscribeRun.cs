@@ -19,18 +19,32 @@ public sealed record TranscribeOptions(
 public sealed record TranscribeSummary(int Sources, int Lines, int Flagged, int Errors, double Seconds, string ModelId)
 {
     public bool HasErrors => Errors > 0;
+
+    /// <summary>Sources whose results came from the journal of an earlier, interrupted run.</summary>
+    public int Reused { get; init; }
+
+    /// <summary>The run stopped early on request; the reports cover what was done.</summary>
+    public bool Cancelled { get; init; }
 }
 
 /// <summary>
 /// The batch stage: every source is read and its text file written before the next starts; a bad source
 /// becomes an entry in errors.jsonl and the batch goes on. Reports are renamed into place at the end.
+/// Rerunning into the same folder reuses the journalled results of an interrupted run (see <see cref="BatchRunner"/>).
 /// </summary>
 public static class TranscribeRun
 {
     public static TranscribeSummary Run(
-        IEnumerable<string> inputs, TranscribeOptions options, TextWriter? progress = null, CancellationToken cancel = default)
+        IEnumerable<string> inputs, TranscribeOptions options, TextWriter? progress = null, CancellationToken cancel = default) =>
+        Run(inputs, options, new BatchOptions(), progress, cancel);
+
+    public static TranscribeSummary Run(
+        IEnumerable<string> inputs, TranscribeOptions options, BatchOptions batch, TextWriter? progress, CancellationToken cancel)
     {
+        ArgumentNullException.ThrowIfNull(inputs);
         ArgumentNullException.ThrowIfNull(options);
+        ArgumentNullException.ThrowIfNull(batch);
+        batch.Validate();
         var clock = Stopwatch.StartNew();
         var started = DateTime.UtcNow;
         Directory.CreateDirectory(options.OutDir);
@@ -38,49 +52,30 @@ public static class TranscribeRun
         var reader = new PageReader(model, options.Imaging ?? new ImagingOptions(), options.FlagBelow);
         var (sources, inputErrors) = InputSet.Expand(inputs);
 
-        using var reports = new RunReports(options.OutDir);
-        int lines = 0, flagged = 0, done = 0, errors = 0;
-        foreach (var e in inputErrors) { reports.AddError(e); errors++; }
-        foreach (var source in sources)
+        var job = new BatchJob(options.OutDir, sources, inputErrors, reader.Imaging, reader.Read, model.Id,
+            OptionsFingerprint.Of(options), batch);
+        var c = BatchRunner.Run(job, new BatchProgress(progress, batch.Progress, batch),
+            counts => Summary(counts, clock.Elapsed.TotalSeconds), cancel);
+        return new TranscribeSummary(c.Sources, c.Lines, c.Flagged, c.Errors, clock.Elapsed.TotalSeconds, model.Id)
         {
-            if (cancel.IsCancellationRequested) break;
-            try
-            {
-                var results = reader.Read(source);
-                var text = string.Join("\n", results.Select(r => r.Text)) + "\n";
-                var target = Path.Combine(options.OutDir, Path.ChangeExtension(source.Source, ".txt"));
-                Directory.CreateDirectory(Path.GetDirectoryName(target)!);
-                AtomicFile.WriteAllText(target, text);
-                reports.Add(results);
-                lines += results.Count;
-                flagged += results.Count(r => r.Flagged);
-                done++;
-            }
-            catch (InputException e)
-            {
-                reports.AddError(e);
-                errors++;
-                progress?.WriteLine($"error: {e.Message}");
-            }
-        }
+            Reused = c.Reused, Cancelled = c.Cancelled,
+        };
 
-        var seconds = clock.Elapsed.TotalSeconds;
-        reports.Complete(new Dictionary<string, object?>
+        IDictionary<string, object?> Summary(BatchCounts c, double seconds) => new Dictionary<string, object?>
         {
-            ["sources"] = sources.Count,
-            ["sources_done"] = done,
-            ["lines"] = lines,
-            ["flagged"] = flagged,
-            ["errors"] = errors,
+            ["sources"] = c.Sources,
+            ["sources_done"] = c.Done,
+            ["lines"] = c.Lines,
+            ["flagged"] = c.Flagged,
+            ["errors"] = c.Errors,
             ["flag_below"] = options.FlagBelow,
             ["model_id"] = model.Id,
             ["model_path"] = Path.GetFullPath(options.ModelPath),
             ["decoder"] = "greedy",
             ["started_utc"] = started.ToString("O"),
             ["elapsed_seconds"] = Math.Round(seconds, 3),
-            ["lines_per_second"] = Math.Round(lines / Math.Max(seconds, 1e-9), 2),
-            ["cancelled"] = cancel.IsCancellationRequested,
-        });
-        return new TranscribeSummary(sources.Count, lines, flagged, errors, seconds, model.Id);
+            ["lines_per_second"] = Math.Round(c.Lines / Math.Max(seconds, 1e-9), 2),
+            ["cancelled"] = c.Cancelled,
+        };
     }
 }

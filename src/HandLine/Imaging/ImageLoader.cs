@@ -26,28 +26,42 @@ public static class ImageLoader
         new BmpConfigurationModule(),
         new GifConfigurationModule());
 
-    public static GrayImage Load(string path, ImagingOptions options)
+    public static GrayImage Load(string path, ImagingOptions options) => Load(ReadFile(path, options), path, options);
+
+    /// <summary>
+    /// Reads an image file's bytes, checking its size first. Special files (pipes, devices) report a size of
+    /// 0 and are refused before opening, because reading one could block for ever.
+    /// </summary>
+    public static byte[] ReadFile(string path, ImagingOptions options)
     {
         ArgumentException.ThrowIfNullOrEmpty(path);
         ArgumentNullException.ThrowIfNull(options);
         options.Validate();
 
-        byte[] bytes;
         try
         {
             var info = new FileInfo(path);
             if (!info.Exists)
                 throw new InputException(path, "read", Directory.Exists(path) ? "is a folder, not an image file" : "file not found");
+            if (info.Length == 0)
+                throw new InputException(path, "decode", "file is empty");
             if (info.Length > options.MaxFileBytes)
                 throw new InputException(path, "limits", $"file is {info.Length} bytes, over the limit of {options.MaxFileBytes}");
-            bytes = File.ReadAllBytes(path);
+            return File.ReadAllBytes(path);
         }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or NotSupportedException or System.Security.SecurityException)
+        catch (Exception e) when (e is FileNotFoundException or DirectoryNotFoundException)
+        {
+            // FileInfo.Exists is true for a link whose target is gone.
+            throw new InputException(path, "read", "file not found (or a link to a missing file)", e);
+        }
+        catch (UnauthorizedAccessException e)
+        {
+            throw new InputException(path, "read", "permission denied: this account may not read the file", e);
+        }
+        catch (Exception e) when (e is IOException or NotSupportedException or System.Security.SecurityException)
         {
             throw new InputException(path, "read", $"cannot read the file ({e.Message})", e);
         }
-
-        return Load(bytes, path, options);
     }
 
     /// <param name="nameForErrors">Shown in error messages (normally the file's path).</param>
@@ -62,6 +76,10 @@ public static class ImageLoader
             throw new InputException(nameForErrors, "decode", "file is empty");
         if (bytes.Length > options.MaxFileBytes)
             throw new InputException(nameForErrors, "limits", $"file is {bytes.Length} bytes, over the limit of {options.MaxFileBytes}");
+
+        // Before the decoders, which accept a cut-short file without complaint.
+        if (ImageIntegrity.Problem(bytes) is { } damage)
+            throw new InputException(nameForErrors, "decode", damage);
 
         IImageInfo? info;
         try

@@ -52,9 +52,21 @@ public sealed class CommandLineTests : IDisposable
     [Fact]
     public void BadArgumentsAndBadFilesGiveTheDocumentedExitCodes()
     {
-        Assert.NotEqual(0, Run("transcribe").Code); // missing INPUT and --out
+        Assert.Equal(2, Run("transcribe").Code); // missing INPUT and --out
+        Assert.Equal(2, Run("transcribe", _dir, "--out", Path.Combine(_dir, "o"), "--shard", "4/4").Code);
+        Assert.Equal(2, Run("transcribe", _dir, "--out", Path.Combine(_dir, "o"), "--model", Path.Combine(_dir, "none.hlm")).Code);
+        Assert.Equal(2, Run("merge", Path.Combine(_dir, "no-run"), "--out", Path.Combine(_dir, "m")).Code);
         var (code, _, err) = Run("score", "--truth", Path.Combine(_dir, "none.tsv"), "--run", _dir);
         Assert.Equal(2, code);
         Assert.Contains("none.tsv", err);
+    }
+
+    [Fact]
+    public void ACleanRunExitsWithZero()
+    {
+        var scans = BatchTestSupport.DemoCopies(_dir, 2);
+        var (code, _, err) = Run("transcribe", scans, "--out", Path.Combine(_dir, "out"), "--model", BatchTestSupport.SmallModel(_dir), "--threads", "1");
+        Assert.True(code == 0, err);
+        Assert.Contains("2 sources, 2 lines", err);
     }
 }

@@ -1,0 +1,30 @@
+namespace HandLine.Batch;
+
+/// <summary>The per-image text file: where it goes and what it holds. One place, so runs and merges agree.</summary>
+public static class TranscriptFile
+{
+    private static readonly System.Text.UTF8Encoding Utf8 = new(false);
+
+    /// <summary>The source's path with its extension replaced by ".txt" ('/' separators, relative to the out folder).</summary>
+    public static string RelativePathFor(string source)
+    {
+        ArgumentException.ThrowIfNullOrEmpty(source);
+        return Path.ChangeExtension(source, ".txt");
+    }
+
+    public static string FullPathFor(string outDir, string source) =>
+        Path.Combine(outDir, RelativePathFor(source).Replace('/', Path.DirectorySeparatorChar));
+
+    /// <summary>One recognised line per text line, each ended by a line feed.</summary>
+    public static string TextOf(IReadOnlyList<LineResult> lines) => string.Join("\n", lines.Select(r => r.Text)) + "\n";
+
+    /// <summary>Writes the file atomically unless it already holds exactly this text.</summary>
+    public static void Write(string outDir, string source, IReadOnlyList<LineResult> lines, bool skipIfSame)
+    {
+        var target = FullPathFor(outDir, source);
+        var bytes = Utf8.GetBytes(TextOf(lines));
+        if (skipIfSame && File.Exists(target) && File.ReadAllBytes(target).AsSpan().SequenceEqual(bytes)) return;
+        Directory.CreateDirectory(Path.GetDirectoryName(target)!);
+        AtomicFile.WriteAllBytes(target, bytes);
+    }
+}
