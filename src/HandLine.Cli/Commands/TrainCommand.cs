@@ -32,7 +32,9 @@ internal static class TrainCommand
         {
             train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric,
         };
-        command.SetAction((parse, cancel) => Task.FromResult(CommandRunner.Guard(() =>
+        // The work runs on a worker thread so the Ctrl+C handler is in place while it runs: a stop then
+        // ends the current batch, saves a checkpoint and leaves a resumable run.
+        command.SetAction((parse, cancel) => Task.Run(() => CommandRunner.Guard(() =>
         {
             var options = new TrainingOptions
             {
@@ -65,7 +67,7 @@ internal static class TrainCommand
                 .Train(model, trainSet, validSet, parse.GetValue(outPath)!, options, recipe, cancel);
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"\nbest validation CER {result.BestValidationCer:P2} after {result.Epochs} epochs, {result.LinesSeen} lines, {result.Minutes:F1} min{(result.StoppedEarly ? " (stopped; resume with --resume)" : "")}"));
-            return ExitCodes.Ok;
+            return cancel.IsCancellationRequested ? ExitCodes.Cancelled : ExitCodes.Ok;
         })));
         return command;
     }

@@ -32,8 +32,12 @@ public sealed class LineModel : IDisposable
         ArgumentNullException.ThrowIfNull(charset);
         features.Validate();
         network.Validate();
-        TorchRuntime.Seed(seed);
-        var net = new LineNetwork(features.FrameDimension, network, charset.ClassCount);
+        LineNetwork net;
+        lock (TorchRuntime.RandomLock)
+        {
+            TorchRuntime.Seed(seed);
+            net = new LineNetwork(features.FrameDimension, network, charset.ClassCount);
+        }
         var header = new ModelHeader(ModelHeader.CurrentFormatVersion, charset.ToString(), features, network,
             Training: null, ValidationCer: null, CreatedUtc: DateTime.UtcNow.ToString("O"));
         return new LineModel(header, charset, net, "unsaved");

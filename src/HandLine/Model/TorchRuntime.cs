@@ -11,5 +11,14 @@ public static class TorchRuntime
         if (threads > 0) torch.set_num_threads(threads);
     }
 
-    public static void Seed(long seed) => torch.manual_seed(seed);
+    /// <summary>
+    /// Held while seeding libtorch's global generator and drawing from it, so that two models built or trained
+    /// at the same time in one process (parallel tests, a host application) cannot take each other's numbers.
+    /// </summary>
+    internal static readonly Lock RandomLock = new();
+
+    public static void Seed(long seed)
+    {
+        lock (RandomLock) torch.manual_seed(seed);
+    }
 }

@@ -6,7 +6,11 @@ using TorchSharp.Modules;
 
 namespace HandLine.Training;
 
-/// <summary>Where a run stands, so an interrupted run can continue exactly where it stopped.</summary>
+/// <summary>
+/// Where a run stands, so an interrupted run can continue exactly where it stopped. <see cref="BestCer"/> is the
+/// best epoch-end CER and drives the schedule; <see cref="SavedCer"/> is the CER of the model file at the output
+/// path, which may also come from a validation made when a run stopped mid-epoch (null: none yet).
+/// </summary>
 public sealed record TrainingState(
     [property: JsonPropertyName("epoch")] int Epoch,
     [property: JsonPropertyName("batch")] int Batch,
@@ -16,7 +20,13 @@ public sealed record TrainingState(
     [property: JsonPropertyName("learning_rate")] double LearningRate,
     [property: JsonPropertyName("best_cer")] double BestCer,
     [property: JsonPropertyName("epochs_since_best")] int EpochsSinceBest,
-    [property: JsonPropertyName("epoch_loss_sum")] double EpochLossSum);
+    [property: JsonPropertyName("epoch_loss_sum")] double EpochLossSum,
+    [property: JsonPropertyName("saved_cer")] double? SavedCer)
+{
+    /// <summary>CER of the saved model; checkpoints from before this field saved only at epoch ends.</summary>
+    [JsonIgnore]
+    public double SavedOrBestCer => SavedCer ?? BestCer;
+}
 
 /// <summary>
 /// A checkpoint file: magic, JSON state, network weights, optimiser state. Written atomically, so a run killed

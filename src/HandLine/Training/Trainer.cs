@@ -47,7 +47,7 @@ public sealed class Trainer
         using var optimizer = optim.Adam(network.parameters(), lr: options.LearningRate);
         var checkpointPath = Checkpoint.PathFor(outPath);
         var logPath = outPath + ".log.csv";
-        var state = new TrainingState(0, 0, 0, 0, 0, options.LearningRate, double.PositiveInfinity, 0, 0);
+        var state = new TrainingState(0, 0, 0, 0, 0, options.LearningRate, double.PositiveInfinity, 0, 0, null);
         if (options.Resume && File.Exists(checkpointPath))
         {
             state = Checkpoint.Load(checkpointPath, network, optimizer);
@@ -99,13 +99,24 @@ public sealed class Trainer
             }
             if (stopped && state.Batch < batches.Count)
             {
+                // The epoch is unfinished: the schedule waits for its end in a resumed run, but the weights
+                // reached so far are validated now and kept if they beat the saved model.
+                var partial = Validate(model, valid);
+                _progress.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                    $"stopped in epoch {state.Epoch + 1} at batch {state.Batch}: validation CER {partial:P2}"));
+                if (partial < state.SavedOrBestCer)
+                {
+                    bestId = model.Save(outPath, RecipeAt(recipe, state), Math.Round(partial, 5));
+                    state = state with { SavedCer = partial };
+                }
                 Checkpoint.Save(checkpointPath, state, network, optimizer);
-                break; // the epoch is unfinished: it is validated when a resumed run completes it
+                break;
             }
 
             var cer = Validate(model, valid);
             var meanLoss = state.EpochLossSum / Math.Max(1, batches.Count);
             var improved = cer < state.BestCer;
+            var beatsSaved = cer < state.SavedOrBestCer; // before the state update below
             var sinceBest = improved ? 0 : state.EpochsSinceBest + 1;
             var lr = state.LearningRate;
             if (!improved && sinceBest % options.PlateauEpochs == 0) lr /= 2;
@@ -117,9 +128,12 @@ public sealed class Trainer
             SetLearningRate(optimizer, lr);
             AppendLog(logPath, state, meanLoss, cer, batchesPerEpoch);
             _progress.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"epoch {state.Epoch}/{options.Epochs}: mean loss {meanLoss:F3}, validation CER {cer:P2}{(improved ? " (best, saved)" : "")}, step size {lr:G3}"));
-            if (improved)
-                bestId = model.Save(outPath, recipe with { Epochs = state.Epoch, LinesSeen = state.LinesSeen, Minutes = Math.Round(state.Minutes, 1) }, Math.Round(cer, 5));
+                $"epoch {state.Epoch}/{options.Epochs}: mean loss {meanLoss:F3}, validation CER {cer:P2}{(beatsSaved ? " (saved)" : "")}, step size {lr:G3}"));
+            if (beatsSaved)
+            {
+                bestId = model.Save(outPath, RecipeAt(recipe, state), Math.Round(cer, 5));
+                state = state with { SavedCer = cer };
+            }
             Checkpoint.Save(checkpointPath, state, network, optimizer);
             if (sinceBest >= options.Patience)
             {
@@ -129,6 +143,9 @@ public sealed class Trainer
         }
         return new TrainingResult(state.BestCer, state.Epoch, state.LinesSeen, state.Minutes, stopped, bestId);
     }
+
+    private static TrainingRecord RecipeAt(TrainingRecord recipe, TrainingState s) =>
+        recipe with { Epochs = s.Epoch, LinesSeen = s.LinesSeen, Minutes = Math.Round(s.Minutes, 1) };
 
     /// <summary>Validation CER with greedy decoding, over code points (the same measure as `score`).</summary>
     public static double Validate(LineModel model, IReadOnlyList<LineSample> valid)
@@ -174,11 +191,15 @@ public sealed class Trainer
     private static float Step(LineNetwork network, Adam optimizer, IReadOnlyList<LineSample> batch, TrainingOptions options, int epoch, int index)
     {
         using var scope = NewDisposeScope();
-        // Dropout draws from torch's generator: seed it per batch so a resumed run repeats the same masks.
-        torch.manual_seed(((long)options.Seed * 1_000_003L) + (epoch * 100_003L) + index);
         optimizer.zero_grad();
         network.train();
-        var loss = CtcLoss(network, batch);
+        Tensor loss;
+        // Dropout draws from torch's generator: seed it per batch so a resumed run repeats the same masks.
+        lock (TorchRuntime.RandomLock)
+        {
+            TorchRuntime.Seed(((long)options.Seed * 1_000_003L) + (epoch * 100_003L) + index);
+            loss = CtcLoss(network, batch);
+        }
         loss.backward();
         nn.utils.clip_grad_norm_(network.parameters(), options.ClipNorm);
         optimizer.step();

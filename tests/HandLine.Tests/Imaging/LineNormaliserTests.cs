@@ -1,7 +1,5 @@
-using System.Diagnostics;
 using HandLine.Imaging;
 using Xunit;
-using Xunit.Abstractions;
 using static HandLine.Tests.Imaging.ImagingTestSupport;
 
 namespace HandLine.Tests.Imaging;
@@ -166,32 +164,5 @@ public sealed class LineNormaliserTests
     {
         Assert.Throws<ArgumentNullException>(() => LineNormaliser.Normalise(null!, Defaults));
         Assert.Throws<ArgumentException>(() => LineNormaliser.Normalise(GrayImage.Filled(5, 5, 1f), Defaults with { LineHeight = 2 }));
-    }
-}
-
-/// <summary>Timing runs alone so other test classes do not compete for the two cores.</summary>
-[CollectionDefinition(nameof(LineNormaliserTimingTests), DisableParallelization = true)]
-public sealed class LineNormaliserTimingCollection;
-
-[Collection(nameof(LineNormaliserTimingTests))]
-public sealed class LineNormaliserTimingTests(ITestOutputHelper output)
-{
-    [Fact]
-    public void Typical_line_normalises_quickly()
-    {
-        var options = new ImagingOptions();
-        var line = Render(EstateLine, fontSize: 72, rotateDegrees: 2, slantDegrees: 10, padding: 20);
-        output.WriteLine($"line {line.Width}x{line.Height}");
-        for (int i = 0; i < 30; i++)
-            LineNormaliser.Normalise(line, options); // let the JIT settle
-        const int runs = 30;
-        var clock = Stopwatch.StartNew();
-        for (int i = 0; i < runs; i++)
-            LineNormaliser.Normalise(line, options);
-        double ms = clock.Elapsed.TotalMilliseconds / runs;
-        output.WriteLine($"{ms:F2} ms per line");
-        // Target is a few ms in an optimised build; tests run unoptimised (Debug) on a shared
-        // machine, so this only catches gross regressions such as a quadratic step.
-        Assert.True(ms < 100, $"{ms:F1} ms per line");
     }
 }

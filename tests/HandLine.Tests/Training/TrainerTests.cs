@@ -64,6 +64,9 @@ public sealed class TrainerTests : IDisposable
 
         using (var first = Model())
             new Trainer(TextWriter.Null).Train(first, lines, probe, Path.Combine(_dir, "b.hlm"), Options(3, false), record);
+        // Stopped mid-epoch: the weights so far were validated and saved, so an interrupted run still leaves a model.
+        using (var saved = ModelFile.Load(Path.Combine(_dir, "b.hlm")))
+            Assert.NotNull(saved.Header.ValidationCer);
         using var resumed = Model(); // fresh weights: everything must come from the checkpoint
         new Trainer(TextWriter.Null).Train(resumed, lines, probe, Path.Combine(_dir, "b.hlm"), Options(6, true), record);
 
