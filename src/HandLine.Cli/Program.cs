@@ -7,5 +7,9 @@ var root = new RootCommand("HandLine: transcribe scanned handwritten text lines,
     ScoreCommand.Create(),
     SynthCommand.Create(),
     TrainCommand.Create(),
+    LmCommand.Create(),
+    WordsCommand.Create(),
+    CalibrateCommand.Create(),
+    BenchDecodeCommand.Create(),
 };
 return root.Parse(args).Invoke();

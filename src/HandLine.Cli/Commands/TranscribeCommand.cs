@@ -25,16 +25,19 @@ internal static class TranscribeCommand
             if (v is < 0 or > 1) r.AddError("--flag-below must be between 0 and 1");
         });
 
+        var decoding = new DecodingArguments();
         var command = new Command("transcribe", "Transcribe line or page images into text plus confidence reports")
         {
             inputs, outDir, model, flagBelow,
         };
+        foreach (var option in decoding.All) command.Options.Add(option);
         command.SetAction((parse, cancel) =>
         {
-            var options = new TranscribeOptions(
-                parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow));
             return Task.FromResult(CommandRunner.Guard(() =>
             {
+                var options = new TranscribeOptions(
+                    parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow),
+                    Decoding: decoding.Build(parse));
                 var s = TranscribeRun.Run(parse.GetValue(inputs)!, options, Console.Error, cancel);
                 Console.Error.WriteLine(
                     $"{s.Sources} sources, {s.Lines} lines, {s.Flagged} flagged, {s.Errors} errors in {s.Seconds:F1} s (model {s.ModelId}); reports in {options.OutDir}");
