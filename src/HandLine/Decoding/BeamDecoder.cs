@@ -99,6 +99,7 @@ public sealed class BeamDecoder
             var beam = new List<int> { root };
             var touched = new List<int>();
             var candidates = new List<int>();
+            var ranked = new List<(double Score, int Node)>();
 
             for (var t = 0; t < posteriors.Frames; t++)
             {
@@ -126,15 +127,17 @@ public sealed class BeamDecoder
                     }
                 }
 
+                ranked.Clear();
                 foreach (var n in touched)
                 {
                     _nodes[n].Pb = _nodes[n].NextPb;
                     _nodes[n].Pnb = _nodes[n].NextPnb;
+                    ranked.Add((Score(n), n));
                 }
                 // A prefix that drops out keeps stale p_b/p_nb, but they are only read again after Accumulate resets them.
-                touched.Sort((a, b) => Compare(Score(a), a, Score(b), b));
-                if (touched.Count > o.Beam) touched.RemoveRange(o.Beam, touched.Count - o.Beam);
-                beam = [.. touched];
+                ranked.Sort((a, b) => Compare(a.Score, a.Node, b.Score, b.Node));
+                beam.Clear();
+                for (var i = 0; i < Math.Min(o.Beam, ranked.Count); i++) beam.Add(ranked[i].Node);
             }
             return Finish(beam);
         }

@@ -128,5 +128,27 @@ public sealed class CharNgramModel
         return Probability(state, next is null ? EndId : IdOf(TextUnits.ToNfc(next)));
     }
 
+    /// <summary>Average bits per symbol (characters and each line's end) over held-out lines: the cross-entropy.</summary>
+    public double BitsPerCharacter(IEnumerable<string> lines)
+    {
+        ArgumentNullException.ThrowIfNull(lines);
+        double bits = 0;
+        long symbols = 0;
+        foreach (var line in lines)
+        {
+            var state = Start;
+            foreach (var rune in TextUnits.ToNfc(line).EnumerateRunes())
+            {
+                var id = IdOf(rune.ToString());
+                bits -= Math.Log2(Probability(state, id));
+                state = Advance(state, id);
+                symbols++;
+            }
+            bits -= Math.Log2(Probability(state, EndId));
+            symbols++;
+        }
+        return symbols == 0 ? 0 : bits / symbols;
+    }
+
     internal static ulong Mask(int symbols) => symbols >= 8 ? ulong.MaxValue : (1UL << (8 * symbols)) - 1;
 }

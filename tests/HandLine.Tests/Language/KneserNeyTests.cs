@@ -36,6 +36,15 @@ public sealed class KneserNeyTests
         Assert.Equal((2 - d) / 2 + d / 2 * p1End, lm.Probability("ab", null), 12);
     }
 
+    [Fact]
+    public void CrossEntropyIsTheMeanNegativeLog2ProbabilityPerSymbol()
+    {
+        // Definition of cross-entropy: "ab" is three predictions — a after the start, b after a, end after b.
+        var lm = CharNgramBuilder.Build(["aab", "ab"], 2);
+        var expected = -(Math.Log2(lm.Probability("", "a")) + Math.Log2(lm.Probability("a", "b")) + Math.Log2(lm.Probability("ab", null))) / 3;
+        Assert.Equal(expected, lm.BitsPerCharacter(["ab"]), 12);
+    }
+
     /// <summary>A probability distribution must sum to 1 over the vocabulary (definition), in any context.</summary>
     [Theory]
     [InlineData(1)]
