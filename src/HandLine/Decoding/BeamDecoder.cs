@@ -66,6 +66,7 @@ public sealed class BeamDecoder
         public double Extra;   // α·log P_lm + β·length − lexicon penalties, so far
         public double Pb, Pnb, NextPb, NextPnb;
         public int Stamp;      // frame at which NextPb/NextPnb were last reset
+        public int BeamFrame;  // frame for which this prefix is in the beam
     }
 
     public Hypothesis Decode(Posteriors posteriors)
@@ -109,20 +110,35 @@ public sealed class BeamDecoder
                     if (posteriors[t, c] >= floor) candidates.Add(c);
                 var blank = (double)posteriors[t, 0];
 
+                // Exact pruning: each prefix in a full beam scores at least its blank continuation this frame, so the
+                // B-th best score will be at least the lowest of those. A new extension's score is at most its one
+                // contribution plus its parent's extra and the bonus (language model and penalties only lower it),
+                // so one that falls below this bound could never enter the beam and is not created.
+                var bound = double.NegativeInfinity;
+                if (beam.Count >= o.Beam)
+                {
+                    bound = double.PositiveInfinity;
+                    foreach (var p in beam)
+                        bound = Math.Min(bound, LogSpace.Add(_nodes[p].Pb, _nodes[p].Pnb) + blank + _nodes[p].Extra);
+                }
+
                 foreach (var p in beam)
                 {
                     var pb = _nodes[p].Pb;
                     var pnb = _nodes[p].Pnb;
                     var last = _nodes[p].Class;
                     var total = LogSpace.Add(pb, pnb);
+                    var ceiling = _nodes[p].Extra + Math.Max(0, o.CharBonus);
                     Accumulate(p, t, total + blank, double.NegativeInfinity, touched);
                     if (last > 0) Accumulate(p, t, double.NegativeInfinity, pnb + posteriors[t, last], touched);
                     foreach (var c in candidates)
                     {
-                        var child = ChildOf(p, c);
-                        if (child < 0) continue;
                         // A repeated label needs a blank between, so only paths ending in a blank extend by it.
                         var add = (c == last ? pb : total) + posteriors[t, c];
+                        // An extension already in the beam also collects its own paths, so it is never skipped.
+                        if (add + ceiling < bound && !InBeam((long)p * _classes + c, t)) continue;
+                        var child = ChildOf(p, c);
+                        if (child < 0) continue;
                         Accumulate(child, t, double.NegativeInfinity, add, touched);
                     }
                 }
@@ -137,7 +153,11 @@ public sealed class BeamDecoder
                 // A prefix that drops out keeps stale p_b/p_nb, but they are only read again after Accumulate resets them.
                 ranked.Sort((a, b) => Compare(a.Score, a.Node, b.Score, b.Node));
                 beam.Clear();
-                for (var i = 0; i < Math.Min(o.Beam, ranked.Count); i++) beam.Add(ranked[i].Node);
+                for (var i = 0; i < Math.Min(o.Beam, ranked.Count); i++)
+                {
+                    beam.Add(ranked[i].Node);
+                    _nodes[ranked[i].Node].BeamFrame = t + 1;
+                }
             }
             return Finish(beam);
         }
@@ -198,6 +218,8 @@ public sealed class BeamDecoder
                 .Select((f, i) => new Alternative(TextOf(labels[i]), f.Score, shares[i])).ToArray();
             return new Hypothesis(TextOf(chosen), chars, partial ? 0 : shares[0]) { Alternatives = alternatives };
         }
+
+        private bool InBeam(long childKey, int t) => _child.TryGetValue(childKey, out var n) && n >= 0 && _nodes[n].BeamFrame == t;
 
         /// <summary>The nearest prefix (itself or an ancestor) that does not end inside an unfinished word.</summary>
         private int CompleteAncestor(int n)
@@ -271,7 +293,7 @@ public sealed class BeamDecoder
             var n = NewNode(new Node
             {
                 Parent = parent, Class = cls, Length = p.Length + 1, LmState = lmState, Lex = lex, Extra = extra,
-                Pb = double.NegativeInfinity, Pnb = double.NegativeInfinity, Stamp = -1,
+                Pb = double.NegativeInfinity, Pnb = double.NegativeInfinity, Stamp = -1, BeamFrame = -1,
             });
             _child[key] = n;
             return n;

@@ -111,6 +111,59 @@ public sealed class BeamSearchTests
         }
     }
 
+    /// <summary>
+    /// A narrow beam must keep exactly the prefixes the textbook algorithm keeps (Hannun et al. 2014, algorithm 1:
+    /// extend every prefix by blank, repeat and each character, merge equal prefixes, keep the B best), written
+    /// here plainly with strings and no shortcuts; the decoder's pruning may only skip work, never change results.
+    /// </summary>
+    [Theory]
+    [InlineData(2, 21)]
+    [InlineData(3, 22)]
+    [InlineData(4, 23)]
+    public void NarrowBeamMatchesAPlainReferenceSearch(int beam, int seed)
+    {
+        var rng = new Random(seed);
+        for (var trial = 0; trial < 10; trial++)
+        {
+            var post = RandomPosteriors(12, Abc.ClassCount, rng);
+            var expected = ReferenceSearch(post, beam);
+            var h = new BeamDecoder(Abc, new DecodingOptions { Beam = beam, CandidateFloor = 0, Alternatives = beam }).Decode(post);
+            Assert.Equal(expected.Select(e => e.Text), h.Alternatives.Select(a => a.Text));
+            for (var i = 0; i < expected.Count; i++) Assert.Equal(expected[i].LogP, h.Alternatives[i].Score, 9);
+        }
+    }
+
+    private static List<(string Text, double LogP)> ReferenceSearch(Posteriors post, int width)
+    {
+        static double Add(double a, double b) => double.IsNegativeInfinity(a) ? b : double.IsNegativeInfinity(b) ? a
+            : Math.Max(a, b) + Math.Log(1 + Math.Exp(-Math.Abs(a - b)));
+        var beam = new Dictionary<string, (double B, double Nb)> { [""] = (0, double.NegativeInfinity) };
+        for (var t = 0; t < post.Frames; t++)
+        {
+            var next = new Dictionary<string, (double B, double Nb)>();
+            void Put(string l, double b, double nb)
+            {
+                var old = next.GetValueOrDefault(l, (double.NegativeInfinity, double.NegativeInfinity));
+                next[l] = (Add(old.Item1, b), Add(old.Item2, nb));
+            }
+            foreach (var (l, (b, nb)) in beam)
+            {
+                Put(l, Add(b, nb) + post[t, 0], double.NegativeInfinity);
+                if (l.Length > 0) Put(l, double.NegativeInfinity, nb + post[t, Abc.Encode(l[^1..])[0]]);
+                for (var c = 1; c < post.Classes; c++)
+                {
+                    var s = Abc.SymbolOf(c);
+                    var sameAsLast = l.Length > 0 && l[^1..] == s;
+                    Put(l + s, double.NegativeInfinity, (sameAsLast ? b : Add(b, nb)) + post[t, c]);
+                }
+            }
+            beam = next.OrderByDescending(p => Add(p.Value.B, p.Value.Nb)).ThenBy(p => p.Key, StringComparer.Ordinal)
+                .Take(width).ToDictionary(p => p.Key, p => p.Value);
+        }
+        return beam.Select(p => (p.Key, Add(p.Value.B, p.Value.Nb))).OrderByDescending(p => p.Item2)
+            .ThenBy(p => p.Key, StringComparer.Ordinal).ToList();
+    }
+
     internal static Posteriors RandomPosteriors(int frames, int classes, Random rng)
     {
         var values = new float[frames * classes];
