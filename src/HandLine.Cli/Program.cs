@@ -11,5 +11,6 @@ var root = new RootCommand("HandLine: transcribe scanned handwritten text lines,
     WordsCommand.Create(),
     CalibrateCommand.Create(),
     BenchDecodeCommand.Create(),
+    TuneDecodeCommand.Create(),
 };
 return root.Parse(args).Invoke();

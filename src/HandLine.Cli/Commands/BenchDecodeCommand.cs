@@ -1,10 +1,7 @@
 using System.CommandLine;
 using System.Diagnostics;
 using System.Globalization;
-using HandLine.Batch;
 using HandLine.Decoding;
-using HandLine.Features;
-using HandLine.Imaging;
 using HandLine.Model;
 
 namespace HandLine.Cli.Commands;
@@ -35,31 +32,8 @@ internal static class BenchDecodeCommand
             var options = decoding.Build(parse);
             TorchRuntime.SetThreads(parse.GetValue(threads));
             using var lineModel = ModelFile.Load(parse.GetValue(model) ?? DefaultModel.PathBesideExecutable);
-            var imaging = LinePreparation.ImagingFor(lineModel.Features, new ImagingOptions());
-            var (sources, errors) = InputSet.Expand(parse.GetValue(inputs)!);
-            foreach (var e in errors.Take(5)) Console.Error.WriteLine($"skipped: {e.Message}");
-
-            var pages = new List<FeatureSequence[]>();
-            foreach (var source in sources.Take(parse.GetValue(count)))
-            {
-                try
-                {
-                    var page = ImageLoader.Load(source.FullPath, imaging);
-                    var lines = LineFinder.Split(page, imaging).Select(r => LinePreparation.Prepare(r.Image, lineModel.Features, imaging))
-                        .Where(p => p.Line.HasInk).Select(p => p.Features).ToArray();
-                    if (lines.Length > 0) pages.Add(lines);
-                }
-                catch (InputException e)
-                {
-                    Console.Error.WriteLine($"skipped: {e.Message}");
-                }
-            }
-            if (pages.Count == 0) throw new ArgumentException("no usable lines in the input");
-
-            lineModel.Run(pages[0]); // warm-up: first-call costs are not model time
-            var clock = Stopwatch.StartNew();
-            var posteriors = pages.SelectMany(p => lineModel.Run(p)).ToArray();
-            var modelSeconds = clock.Elapsed.TotalSeconds;
+            var (prepared, modelSeconds) = PreparedLines.Run(lineModel, parse.GetValue(inputs)!, parse.GetValue(count));
+            var posteriors = prepared.SelectMany(p => p.Lines).ToArray();
 
             var greedy = new LineDecoder(lineModel.Charset, DecodingOptions.Greedy);
             var chosen = new LineDecoder(lineModel.Charset, options);
@@ -68,7 +42,7 @@ internal static class BenchDecodeCommand
 
             var ci = CultureInfo.InvariantCulture;
             var n = posteriors.Length;
-            Console.WriteLine(string.Create(ci, $"lines: {n} from {pages.Count} sources, {posteriors.Average(p => p.Frames):F0} frames per line on average; network threads: {parse.GetValue(threads)}"));
+            Console.WriteLine(string.Create(ci, $"lines: {n} from {prepared.Count} sources, {posteriors.Average(p => p.Frames):F0} frames per line on average; network threads: {parse.GetValue(threads)}"));
             Console.WriteLine(string.Create(ci, $"model:             {1000 * modelSeconds / n,8:F3} ms/line"));
             Console.WriteLine(string.Create(ci, $"greedy decoding:   {1000 * greedySeconds / n,8:F3} ms/line  ({100 * greedySeconds / modelSeconds:F1}% of model time)"));
             Console.WriteLine(string.Create(ci, $"{Describe(options),-18} {1000 * chosenSeconds / n,8:F3} ms/line  ({100 * chosenSeconds / modelSeconds:F1}% of model time)"));

@@ -68,6 +68,20 @@ public sealed class DecodingCommandLineTests : IDisposable
     }
 
     [Fact]
+    public void TuneDecodeAndBenchDecodePrintTheirFigures()
+    {
+        var model = SmallModel();
+        var tune = Run("tune-decode", DemoTsv, "--model", model, "--count", "3", "--beams", "1,4");
+        Assert.True(tune.Code == 0, tune.Err);
+        Assert.Matches(@"greedy +[0-9.]+ +[0-9.]+ +[0-9.]+", tune.Out);
+        Assert.Matches(@"beam 4 +[0-9.]+ +[0-9.]+ +[0-9.]+", tune.Out);
+
+        var bench = Run("bench-decode", DemoTsv, "--model", model, "--count", "3", "--beam", "4");
+        Assert.True(bench.Code == 0, bench.Err);
+        Assert.Matches(@"decode/model ratio: [0-9.]+", bench.Out);
+    }
+
+    [Fact]
     public void BadDecodingInputsFailWithTheFileAndLine()
     {
         var words = Path.Combine(_dir, "words.txt");
