@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Diagnostics;
 using System.Globalization;
+using HandLine.Calibration;
 using HandLine.Decoding;
 using HandLine.Language;
 using HandLine.Model;
@@ -26,7 +27,7 @@ internal static class TuneDecodeCommand
         var lm = new Option<string?>("--lm") { Description = "Character language model to try" };
         var lmWeights = List("--lm-weights", "With --lm: weights to try (0 = model off)", "0,0.5");
         var bonuses = List("--char-bonuses", "Character bonuses to try", "0");
-        var command = new Command("tune-decode", "Compare decoder settings on a proof sample: CER, WER and decoding time for each")
+        var command = new Command("tune-decode", "Compare decoder settings on a proof sample: CER, WER, calibration error and decoding time for each")
         {
             truth, model, count, threads, beams, lexicon, lexiconModes, lm, lmWeights, bonuses,
         };
@@ -44,17 +45,20 @@ internal static class TuneDecodeCommand
             var lines = prepared.Sum(p => p.Lines.Count);
             var ci = CultureInfo.InvariantCulture;
             Console.WriteLine(string.Create(ci, $"{prepared.Count} sources, {lines} lines; model {1000 * modelSeconds / lines:F2} ms/line"));
-            Console.WriteLine($"{"setting",-44} {"CER %",7} {"WER %",7} {"decode ms/line",15}");
+            Console.WriteLine($"{"setting",-44} {"CER %",7} {"WER %",7} {"char ECE",9} {"line ECE",9} {"decode ms/line",15}");
 
             foreach (var options in Grid(parse, beams, lexiconModes, lmWeights, bonuses, words, languageModel))
             {
                 var decoder = new LineDecoder(lineModel.Charset, options);
                 var clock = Stopwatch.StartNew();
-                var hypotheses = prepared.Select(p => string.Join(' ', p.Lines.Select(l => decoder.Decode(l).Text).Where(t => t.Length > 0))).ToArray();
+                var decoded = prepared.Select(p => p.Lines.Select(decoder.Decode).ToArray()).ToArray();
                 var seconds = clock.Elapsed.TotalSeconds;
-                var report = Scorer.Score(prepared.Select((p, i) => new ScoreItem(p.Source.Source, truthOf[p.Source.FullPath], hypotheses[i])));
+                var report = Scorer.Score(prepared.Select((p, i) => new ScoreItem(p.Source.Source, truthOf[p.Source.FullPath],
+                    string.Join(' ', decoded[i].Select(h => h.Text).Where(t => t.Length > 0)))));
+                var calibration = Calibrator.Evaluate(prepared.SelectMany((p, i) => CalibrationInput.ForSource(p.Source.Source, truthOf[p.Source.FullPath],
+                    decoded[i].Select((h, k) => new CalibrationInput.RunLine(k, h.Text, h.Confidence, h.Chars.Select(c => c.Confidence).ToArray())))).ToArray());
                 Console.WriteLine(string.Create(ci,
-                    $"{Describe(options),-44} {100 * ErrorRate.Of(report.CharCounts),7:F2} {100 * ErrorRate.Of(report.WordCounts),7:F2} {1000 * seconds / lines,15:F3}"));
+                    $"{Describe(options),-44} {100 * ErrorRate.Of(report.CharCounts),7:F2} {100 * ErrorRate.Of(report.WordCounts),7:F2} {calibration.Characters.Ece,9:F4} {calibration.Lines.Ece,9:F4} {1000 * seconds / lines,15:F3}"));
             }
             return ExitCodes.Ok;
         }));

@@ -15,7 +15,8 @@ public static class CalibrationInput
 
     public sealed record Result(IReadOnlyList<CalibrationLine> Lines, int UnmatchedTruthSources, int UnmatchedErrors);
 
-    private sealed record RunLine(int Line, string Text, double Confidence, double[] Chars);
+    /// <summary>One recognised line as the run reported it: index within its source, text and confidences.</summary>
+    public sealed record RunLine(int Line, string Text, double Confidence, IReadOnlyList<double> Chars);
 
     /// <exception cref="InputException">The truth file has problems, or lines.jsonl is missing or malformed.</exception>
     public static Result Load(string truthTsv, string runDir)
@@ -38,38 +39,49 @@ public static class CalibrationInput
                 unmatchedErrors += TextUnits.CodePoints(entry.Text).Length;
                 continue;
             }
-            var ordered = runLines.OrderBy(l => l.Line).ToArray();
-            // Hypothesis code points with their line and confidence (NaN for a joining space).
-            var units = new List<int>();
-            var lineOf = new List<int>();
-            var confidence = new List<double>();
-            for (var i = 0; i < ordered.Length; i++)
-            {
-                var cps = TextUnits.CodePoints(ordered[i].Text);
-                if (cps.Length == 0) continue;
-                if (units.Count > 0) { units.Add(' '); lineOf.Add(i); confidence.Add(double.NaN); }
-                for (var j = 0; j < cps.Length; j++) { units.Add(cps[j]); lineOf.Add(i); confidence.Add(ordered[i].Chars[j]); }
-            }
-            var alignment = EditDistance.Trace<int>(TextUnits.CodePoints(entry.Text), units.ToArray());
-            var errors = new int[ordered.Length];
-            var charConf = ordered.Select(_ => new List<double>()).ToArray();
-            var charOk = ordered.Select(_ => new List<bool>()).ToArray();
-            for (var j = 0; j <= units.Count; j++)
-            {
-                var line = j < units.Count ? lineOf[j] : ordered.Length - 1;
-                errors[line] += alignment.DeletionsBefore[j];
-                if (j == units.Count) continue;
-                var hit = alignment.HypothesisHits[j];
-                if (!hit) errors[line]++;
-                if (!double.IsNaN(confidence[j])) { charConf[line].Add(confidence[j]); charOk[line].Add(hit); }
-            }
-            for (var i = 0; i < ordered.Length; i++)
-            {
-                var id = ordered.Length == 1 ? entry.RelativePath : $"{entry.RelativePath}#{ordered[i].Line}";
-                lines.Add(new CalibrationLine(id, ordered[i].Confidence, charConf[i], charOk[i], errors[i]));
-            }
+            lines.AddRange(ForSource(entry.RelativePath, entry.Text, runLines));
         }
         return new Result(lines, unmatched, unmatchedErrors);
+    }
+
+    /// <summary>Aligns one source's recognised lines (joined with one space) to its truth; one result per line.</summary>
+    public static IReadOnlyList<CalibrationLine> ForSource(string id, string truth, IEnumerable<RunLine> runLines)
+    {
+        ArgumentNullException.ThrowIfNull(id);
+        ArgumentNullException.ThrowIfNull(truth);
+        ArgumentNullException.ThrowIfNull(runLines);
+        var lines = new List<CalibrationLine>();
+        var ordered = runLines.OrderBy(l => l.Line).ToArray();
+        // Hypothesis code points with their line and confidence (NaN for a joining space).
+        var units = new List<int>();
+        var lineOf = new List<int>();
+        var confidence = new List<double>();
+        for (var i = 0; i < ordered.Length; i++)
+        {
+            var cps = TextUnits.CodePoints(ordered[i].Text);
+            if (cps.Length == 0) continue;
+            if (units.Count > 0) { units.Add(' '); lineOf.Add(i); confidence.Add(double.NaN); }
+            for (var j = 0; j < cps.Length; j++) { units.Add(cps[j]); lineOf.Add(i); confidence.Add(ordered[i].Chars[j]); }
+        }
+        var alignment = EditDistance.Trace<int>(TextUnits.CodePoints(truth), units.ToArray());
+        var errors = new int[ordered.Length];
+        var charConf = ordered.Select(_ => new List<double>()).ToArray();
+        var charOk = ordered.Select(_ => new List<bool>()).ToArray();
+        for (var j = 0; j <= units.Count; j++)
+        {
+            var line = j < units.Count ? lineOf[j] : ordered.Length - 1;
+            errors[line] += alignment.DeletionsBefore[j];
+            if (j == units.Count) continue;
+            var hit = alignment.HypothesisHits[j];
+            if (!hit) errors[line]++;
+            if (!double.IsNaN(confidence[j])) { charConf[line].Add(confidence[j]); charOk[line].Add(hit); }
+        }
+        for (var i = 0; i < ordered.Length; i++)
+        {
+            var lineId = ordered.Length == 1 ? id : $"{id}#{ordered[i].Line}";
+            lines.Add(new CalibrationLine(lineId, ordered[i].Confidence, charConf[i], charOk[i], errors[i]));
+        }
+        return lines;
     }
 
     private static Dictionary<string, List<RunLine>> ReadRun(string runDir)

@@ -18,10 +18,12 @@ namespace HandLine.Decoding;
 /// <remarks>
 /// <para>Ties in score are broken by the label sequence (class order, a prefix before its extensions), so the
 /// result never depends on hash or insertion order.</para>
-/// <para>Confidences come from the final beam. Each final text i gets a share s_i = exp(score_i) / Σ_j exp(score_j).
-/// The line confidence is the chosen text's share. A character's confidence is the total share of the final texts
-/// that, aligned to the chosen text by edit distance, have that same character at that place — an estimate of
-/// the posterior probability that the character is right. When a strict lexicon leaves no complete text in
+/// <para>Confidences. The final beam's texts get shares s_i = exp(score_i) / Σ_j exp(score_j); the line confidence
+/// is the chosen text's share. A character's confidence is its posterior against the readings that differ from the
+/// chosen text only at that place (see <see cref="CharacterPosterior"/>), from the model's probabilities alone, so a
+/// character that the lexicon or language model chose against the evidence shows as doubtful. (Agreement among the
+/// final beam's texts was tried first and rejected: prefix beam search prunes early disagreements, so the final
+/// texts differ mostly near the end of the line, and those confidences were badly over-confident.) When a strict lexicon leaves no complete text in
 /// the final beam, the candidates become the final prefixes cut back to their last word boundary, scored exactly by the
 /// forward recursion; the line then gets confidence 0, so it is always flagged.</para>
 /// <para>Not thread-safe (it caches language model look-ups); use one per thread.</para>
@@ -198,21 +200,14 @@ public sealed class BeamDecoder
             var weights = finals.Select(f => Math.Exp(f.Score - top)).ToArray();
             var sum = weights.Sum();
             var shares = weights.Select(w => w / sum).ToArray();
-            var labels = finals.Select(f => LabelsOf(f.Node)).ToArray();
+            var labels = finals.Take(Math.Max(1, o.Alternatives)).Select(f => LabelsOf(f.Node)).ToArray();
 
             var chosen = labels[0];
-            var charConfidence = new double[chosen.Length];
-            for (var i = 0; i < finals.Count; i++)
-            {
-                var hits = i == 0 ? null : EditDistance.Trace<int>(labels[i], chosen).HypothesisHits;
-                for (var j = 0; j < chosen.Length; j++)
-                    if (hits is null || hits[j]) charConfidence[j] += shares[i];
-            }
-
             var spans = CtcAlignment.BestPath(posteriors, chosen);
+            var confidence = CharacterPosterior.Compute(posteriors, chosen, spans, o.CandidateFloor);
             var chars = new CharConfidence[chosen.Length];
             for (var j = 0; j < chosen.Length; j++)
-                chars[j] = new CharConfidence(owner._charset.SymbolOf(chosen[j]), Math.Min(1, charConfidence[j]), spans[j].First, spans[j].Last);
+                chars[j] = new CharConfidence(owner._charset.SymbolOf(chosen[j]), confidence[j], spans[j].First, spans[j].Last);
 
             var alternatives = finals.Take(o.Alternatives)
                 .Select((f, i) => new Alternative(TextOf(labels[i]), f.Score, shares[i])).ToArray();

@@ -48,13 +48,13 @@ public sealed class BeamSearchTests
         foreach (var (text, p) in ranked.Take(8))
             Assert.Equal(Math.Log(p), CtcAlignment.LogProbability(post, Abc.Encode(text)), 9);
 
-        // Character confidence by its definition, from the brute-force posteriors: the total probability of the
-        // labellings whose edit-distance alignment to the chosen text keeps that character.
-        var chosen = Abc.Encode(h.Text);
-        for (var j = 0; j < chosen.Length; j++)
+        // Character confidence by its definition, from the brute-force posteriors: p(l) over p(l) plus every
+        // labelling that substitutes or deletes that one character.
+        for (var j = 0; j < h.Text.Length; j++)
         {
-            var expected = exact.Where(p => EditDistance.Trace<int>(Abc.Encode(p.Key), chosen).HypothesisHits[j]).Sum(p => p.Value) / total;
-            Assert.Equal(expected, h.Chars[j].Confidence, 9);
+            var variants = new HashSet<string> { h.Text, h.Text.Remove(j, 1) };
+            foreach (var c in "abc") variants.Add(h.Text[..j] + c + h.Text[(j + 1)..]);
+            Assert.Equal(exact[h.Text] / variants.Sum(v => exact.GetValueOrDefault(v)), h.Chars[j].Confidence, 9);
         }
     }
 
@@ -108,6 +108,33 @@ public sealed class BeamSearchTests
             var path = Enumerable.Range(0, 12).Select(_ => rng.Next(Abc.ClassCount)).ToArray();
             var post = CtcTests.PeakedPosteriors(path, Abc.ClassCount, peak: 0.97);
             Assert.Equal(GreedyDecoder.Decode(post, Abc).Text, new BeamDecoder(Abc, new DecodingOptions { Beam = 2 }).Decode(post).Text);
+        }
+    }
+
+    /// <summary>
+    /// Character posterior by its definition, from brute-force labelling probabilities (CTC definition, Graves et
+    /// al. 2006): p(l) over p(l) plus every labelling that substitutes or deletes character j, for every
+    /// labelling that fits in the frames.
+    /// </summary>
+    [Theory]
+    [InlineData(4, 31)]
+    [InlineData(5, 32)]
+    [InlineData(6, 33)]
+    public void CharacterPosteriorsMatchTheirDefinitionByEnumeration(int frames, int seed)
+    {
+        var post = RandomPosteriors(frames, Abc.ClassCount, new Random(seed));
+        var exact = BruteForce(post);
+        foreach (var text in exact.Keys.Where(k => k.Length is > 0 and <= 4))
+        {
+            var labels = Abc.Encode(text);
+            var conf = CharacterPosterior.Compute(post, labels, CtcAlignment.BestPath(post, labels), candidateFloor: 0);
+            for (var j = 0; j < text.Length; j++)
+            {
+                var variants = new HashSet<string> { text, text.Remove(j, 1) };
+                foreach (var c in "abc") variants.Add(text[..j] + c + text[(j + 1)..]);
+                var expected = exact[text] / variants.Sum(v => exact.GetValueOrDefault(v));
+                Assert.True(Math.Abs(expected - conf[j]) < 1e-9, $"'{text}' char {j}: expected {expected}, got {conf[j]}");
+            }
         }
     }
 
