@@ -36,9 +36,9 @@ internal sealed class DecodingArguments
         Description = "Weight of the language model's log probability", DefaultValueFactory = _ => new DecodingOptions().LmWeight,
     };
 
-    public Option<double> CharBonus { get; } = new("--char-bonus")
+    public Option<double?> CharBonus { get; } = new("--char-bonus")
     {
-        Description = "Score added per character written (offsets the language model's preference for short text)",
+        Description = $"Score added per character written, offsetting the language model's preference for short text (default {DecodingOptions.DefaultCharBonusWithLm} with --lm, else 0)",
     };
 
     public IEnumerable<Option> All => [Beam, Alternatives, Lexicon, LexiconWeight, Lm, LmWeight, CharBonus];
@@ -54,7 +54,7 @@ internal sealed class DecodingArguments
             Alternatives = parse.GetValue(Alternatives),
             LexiconPenalty = parse.GetValue(LexiconWeight),
             LmWeight = parse.GetValue(LmWeight),
-            CharBonus = parse.GetValue(CharBonus),
+            CharBonus = parse.GetValue(CharBonus) ?? (lmPath is null ? 0 : DecodingOptions.DefaultCharBonusWithLm),
         };
         if (!options.UsesBeam && (lexiconPath is not null || lmPath is not null))
             throw new ArgumentException("--lexicon and --lm need beam search: use --beam 2 or more");

@@ -5,9 +5,7 @@ using HandLine.Model;
 
 namespace HandLine.Cli.Commands;
 
-/// <summary>Sources read and run through the model once, so several decoders can be measured on the same posteriors.</summary>
-internal sealed record PreparedSource(SourceImage Source, IReadOnlyList<Posteriors> Lines);
-
+/// <summary>Reads sources and runs the model once, so several decoders can be measured on the same posteriors.</summary>
 internal static class PreparedLines
 {
     /// <summary>Loads and prepares up to <paramref name="count"/> sources (untimed), then runs the model on each as 'transcribe' does.</summary>
