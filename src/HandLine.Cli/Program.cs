@@ -9,6 +9,11 @@ var root = new RootCommand("HandLine: transcribe scanned handwritten text lines,
     TrainCommand.Create(),
     MergeCommand.Create(),
     BenchBatchCommand.Create(),
+    LmCommand.Create(),
+    WordsCommand.Create(),
+    CalibrateCommand.Create(),
+    BenchDecodeCommand.Create(),
+    TuneDecodeCommand.Create(),
 };
 var parse = root.Parse(args);
 // Ctrl+C or SIGTERM cancels the token; the command then finishes its current item and writes consistent

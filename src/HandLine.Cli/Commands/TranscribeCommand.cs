@@ -26,15 +26,18 @@ internal static class TranscribeCommand
             if (v is < 0 or > 1) r.AddError("--flag-below must be between 0 and 1");
         });
 
+        var decoding = new DecodingArguments();
         var command = new Command("transcribe", "Transcribe line or page images into text plus confidence reports")
         {
             inputs, outDir, model, flagBelow,
         };
+        foreach (var option in decoding.All) command.Options.Add(option);
         var batch = BatchCommandOptions.AddTo(command, transcribing: true);
         command.SetAction((parse, cancel) =>
         {
             var options = new TranscribeOptions(
-                parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow));
+                parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow),
+                Decoding: decoding.Build(parse));
             // On a worker thread, so the action's task exists at once and Ctrl+C reaches the cancellation token.
             return Task.Run(() => CommandRunner.Guard(() =>
             {

@@ -11,4 +11,8 @@ public sealed record LineResult(
     bool Flagged,
     IReadOnlyList<CharConfidence> Chars,
     double DeskewDegrees,
-    double SlantDegrees);
+    double SlantDegrees)
+{
+    /// <summary>The beam's best texts with scores, best first; empty for greedy decoding.</summary>
+    public IReadOnlyList<Alternative> Alternatives { get; init; } = [];
+}

@@ -14,8 +14,11 @@ public sealed class PageReader
     private readonly LineModel _model;
     private readonly ImagingOptions _imaging;
     private readonly double _flagBelow;
+    private readonly LineDecoder _decoder;
 
-    public PageReader(LineModel model, ImagingOptions limits, double flagBelow)
+    /// <param name="decoding">How to decode; null means <see cref="DecodingOptions"/>' defaults.</param>
+    /// <exception cref="InputException">The lexicon has a word the model cannot write.</exception>
+    public PageReader(LineModel model, ImagingOptions limits, double flagBelow, DecodingOptions? decoding = null)
     {
         ArgumentNullException.ThrowIfNull(model);
         ArgumentNullException.ThrowIfNull(limits);
@@ -23,7 +26,10 @@ public sealed class PageReader
         _model = model;
         _imaging = LinePreparation.ImagingFor(model.Features, limits);
         _flagBelow = flagBelow;
+        _decoder = new LineDecoder(model.Charset, decoding ?? new DecodingOptions());
     }
+
+    public LineDecoder Decoder => _decoder;
 
     public ImagingOptions Imaging => _imaging;
 
@@ -46,9 +52,9 @@ public sealed class PageReader
         var results = new LineResult[prepared.Length];
         for (var i = 0; i < prepared.Length; i++)
         {
-            var h = GreedyDecoder.Decode(posteriors[i], _model.Charset);
+            var h = _decoder.Decode(posteriors[i]);
             results[i] = new LineResult(source.Source, i, h.Text, h.Confidence, h.Confidence < _flagBelow, h.Chars,
-                prepared[i].Line.DeskewDegrees, prepared[i].Line.SlantDegrees);
+                prepared[i].Line.DeskewDegrees, prepared[i].Line.SlantDegrees) { Alternatives = h.Alternatives };
         }
         return results;
     }

@@ -40,7 +40,7 @@ internal sealed class RunReports : IDisposable
     {
         foreach (var r in lines)
         {
-            Jsonl.WriteLine(JsonSerializer.Serialize(new Dictionary<string, object>
+            var record = new Dictionary<string, object>
             {
                 ["source"] = r.Source,
                 ["line"] = r.Line,
@@ -54,7 +54,17 @@ internal sealed class RunReports : IDisposable
                 }).ToArray(),
                 ["deskew_deg"] = Math.Round(r.DeskewDegrees, 2),
                 ["slant_deg"] = Math.Round(r.SlantDegrees, 2),
-            }, JsonLine));
+            };
+            if (r.Alternatives.Count > 0)
+            {
+                record["alternatives"] = r.Alternatives.Select(a => new Dictionary<string, object>
+                {
+                    ["text"] = a.Text,
+                    ["score"] = Math.Round(a.Score, 4),
+                    ["share"] = Math.Round(a.Share, 4),
+                }).ToArray();
+            }
+            Jsonl.WriteLine(JsonSerializer.Serialize(record, JsonLine));
             Csv.WriteLine(string.Join(',',
                 CsvField(r.Source), r.Line.ToString(CultureInfo.InvariantCulture), CsvField(r.Text),
                 Math.Round(r.Confidence, 4).ToString(CultureInfo.InvariantCulture), r.Flagged ? "true" : "false",

@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using HandLine.Decoding;
 using HandLine.Imaging;
 using HandLine.Model;
 
@@ -9,7 +10,8 @@ public sealed record TranscribeOptions(
     string OutDir,
     string ModelPath,
     double FlagBelow = TranscribeOptions.DefaultFlagBelow,
-    ImagingOptions? Imaging = null)
+    ImagingOptions? Imaging = null,
+    DecodingOptions? Decoding = null)
 {
     /// <summary>Lines whose confidence is below this are flagged for review (common practice, no source; not yet calibrated).</summary>
     public const double DefaultFlagBelow = 0.8;
@@ -49,7 +51,8 @@ public static class TranscribeRun
         var started = DateTime.UtcNow;
         Directory.CreateDirectory(options.OutDir);
         using var model = ModelFile.Load(options.ModelPath);
-        var reader = new PageReader(model, options.Imaging ?? new ImagingOptions(), options.FlagBelow);
+        var reader = new PageReader(model, options.Imaging ?? new ImagingOptions(), options.FlagBelow, options.Decoding);
+        var decoding = reader.Decoder.Options;
         var (sources, inputErrors) = InputSet.Expand(inputs);
 
         var job = new BatchJob(options.OutDir, sources, inputErrors, reader.Imaging, reader.Read, model.Id,
@@ -71,7 +74,14 @@ public static class TranscribeRun
             ["flag_below"] = options.FlagBelow,
             ["model_id"] = model.Id,
             ["model_path"] = Path.GetFullPath(options.ModelPath),
-            ["decoder"] = "greedy",
+            ["decoder"] = reader.Decoder.Name,
+            ["beam"] = decoding.UsesBeam ? decoding.Beam : null,
+            ["lexicon"] = decoding.Lexicon?.Source,
+            ["lexicon_mode"] = decoding.Lexicon is null ? null : decoding.LexiconPenalty is null ? "strict" : "soft",
+            ["lexicon_weight"] = decoding.LexiconPenalty,
+            ["lm"] = decoding.LanguageModel?.Source,
+            ["lm_weight"] = decoding.LanguageModel is null ? null : decoding.LmWeight,
+            ["char_bonus"] = decoding.UsesBeam ? decoding.CharBonus : null,
             ["started_utc"] = started.ToString("O"),
             ["elapsed_seconds"] = Math.Round(seconds, 3),
             ["lines_per_second"] = Math.Round(c.Lines / Math.Max(seconds, 1e-9), 2),

@@ -38,6 +38,70 @@ public static class EditDistance
     }
 
     /// <summary>
+    /// The same optimal alignment as <see cref="AlignCharacters"/> (same counts, same tie-break), traced back
+    /// over the full matrix so it can say which hypothesis characters are hits. O(n·m) memory: meant for lines.
+    /// </summary>
+    public static UnitAlignment TraceCharacters(string truth, string hypothesis)
+    {
+        ArgumentNullException.ThrowIfNull(truth);
+        ArgumentNullException.ThrowIfNull(hypothesis);
+        return Trace<int>(TextUnits.CodePoints(truth), TextUnits.CodePoints(hypothesis));
+    }
+
+    /// <summary>Full-matrix version of <see cref="Align{T}"/> that also reports where each unit went.</summary>
+    public static UnitAlignment Trace<T>(ReadOnlySpan<T> truth, ReadOnlySpan<T> hypothesis)
+        where T : IEquatable<T>
+    {
+        var comparer = EqualityComparer<T>.Default;
+        int n = truth.Length, m = hypothesis.Length;
+        // cells[i, j]: best counts aligning truth[..i] with hypothesis[..j], with the same preference as Run.
+        var cells = new Cell[n + 1, m + 1];
+        var moves = new byte[n + 1, m + 1]; // 0 diagonal, 1 deletion (up), 2 insertion (left)
+        for (var j = 1; j <= m; j++) { cells[0, j] = cells[0, j - 1].Insert(); moves[0, j] = 2; }
+        for (var i = 1; i <= n; i++)
+        {
+            cells[i, 0] = cells[i - 1, 0].Delete();
+            moves[i, 0] = 1;
+            for (var j = 1; j <= m; j++)
+            {
+                var best = comparer.Equals(truth[i - 1], hypothesis[j - 1]) ? cells[i - 1, j - 1].Hit() : cells[i - 1, j - 1].Substitute();
+                byte move = 0;
+                var deletion = cells[i - 1, j].Delete();
+                var insertion = cells[i, j - 1].Insert();
+                if (deletion.Distance < best.Distance) { best = deletion; move = 1; }
+                if (insertion.Distance < best.Distance) { best = insertion; move = 2; }
+                cells[i, j] = best;
+                moves[i, j] = move;
+            }
+        }
+
+        var hits = new bool[m];
+        var deletionsBefore = new int[m + 1];
+        var truthIndex = new int[m];
+        for (int i = n, j = m; i > 0 || j > 0;)
+        {
+            switch (moves[i, j])
+            {
+                case 0:
+                    hits[j - 1] = comparer.Equals(truth[i - 1], hypothesis[j - 1]);
+                    truthIndex[j - 1] = i - 1;
+                    i--; j--;
+                    break;
+                case 1:
+                    deletionsBefore[j]++;
+                    i--;
+                    break;
+                default:
+                    truthIndex[j - 1] = -1;
+                    j--;
+                    break;
+            }
+        }
+        var last = cells[n, m];
+        return new UnitAlignment(new EditCounts(last.S, last.D, last.I, last.H), hits, deletionsBefore, truthIndex);
+    }
+
+    /// <summary>
     /// Fills the matrix row by row. A step down consumes one unit of <paramref name="rows"/>, a step
     /// across one unit of <paramref name="cols"/>; which of those is a deletion depends on which
     /// sequence is the truth.

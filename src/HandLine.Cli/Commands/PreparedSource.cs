@@ -1,0 +1,7 @@
+using HandLine.Batch;
+using HandLine.Model;
+
+namespace HandLine.Cli.Commands;
+
+/// <summary>One source and the posteriors of its lines.</summary>
+internal sealed record PreparedSource(SourceImage Source, IReadOnlyList<Posteriors> Lines);
