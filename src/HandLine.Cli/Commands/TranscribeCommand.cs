@@ -35,12 +35,13 @@ internal static class TranscribeCommand
         var batch = BatchCommandOptions.AddTo(command, transcribing: true);
         command.SetAction((parse, cancel) =>
         {
-            var options = new TranscribeOptions(
-                parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow),
-                Decoding: decoding.Build(parse));
             // On a worker thread, so the action's task exists at once and Ctrl+C reaches the cancellation token.
             return Task.Run(() => CommandRunner.Guard(() =>
             {
+                // Built inside the guard: a bad word list or language model is a clear error, exit code 2.
+                var options = new TranscribeOptions(
+                    parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow),
+                    Decoding: decoding.Build(parse));
                 TorchRuntime.SetThreads(batch.Threads(parse));
                 var s = TranscribeRun.Run(parse.GetValue(inputs)!, options, batch.Read(parse), Console.Error, cancel);
                 var say = batch.Quiet(parse) ? TextWriter.Null : Console.Error;
