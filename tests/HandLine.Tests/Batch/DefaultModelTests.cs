@@ -1,0 +1,43 @@
+using HandLine.Batch;
+using HandLine.Model;
+using HandLine.Scoring;
+
+namespace HandLine.Tests.Batch;
+
+/// <summary>The bundled model: present, intact, traceable to its recipe, and able to read the demo.</summary>
+public sealed class DefaultModelTests : IDisposable
+{
+    private readonly string _dir = Directory.CreateTempSubdirectory("hl-default-").FullName;
+
+    public void Dispose() => Directory.Delete(_dir, recursive: true);
+
+    private static string ModelPath => Path.Combine(TestPaths.RepoRoot, "models", "default.hlm");
+
+    [Fact]
+    public void TheBundledModelLoadsWithItsRecipe()
+    {
+        using var model = ModelFile.Load(ModelPath);
+        Assert.Equal(CharacterSet.Default.ToString(), model.Charset.ToString());
+        Assert.NotNull(model.Header.ValidationCer);
+        Assert.NotNull(model.Header.Training);
+        Assert.Contains("handline train", model.Header.Training!.Command);
+        Assert.True(new FileInfo(ModelPath).Length < 20 * 1024 * 1024, "the bundled model must stay small enough to commit");
+    }
+
+    [Fact]
+    public void TheBundledModelReadsTheDemoLines()
+    {
+        // The demo lines are drawn in fonts the model never saw in training (fixtures/demo/README.md).
+        // Bound: the CER measured when the model was committed (models/README.md) plus a margin, so a
+        // broken pipeline or a damaged model fails here.
+        const double MaxDemoCer = MeasuredDemoCer + 0.05;
+        var truth = Path.Combine(TestPaths.Fixtures, "demo", "lines.tsv");
+        var outDir = Path.Combine(_dir, "out");
+        TranscribeRun.Run([truth], new TranscribeOptions(outDir, ModelPath));
+        var report = Scorer.ScoreRun(truth, outDir);
+        Assert.True(report.Cer <= MaxDemoCer, $"demo CER {report.Cer:P2} is above {MaxDemoCer:P2}");
+    }
+
+    /// <summary>Measured with `handline transcribe fixtures/demo/lines.tsv` + `handline score` for the committed model.</summary>
+    private const double MeasuredDemoCer = 0.2305;
+}
