@@ -15,14 +15,7 @@ public sealed class DecodingCommandLineTests : IDisposable
     private static (int Code, string Out, string Err) Run(params string[] args) => CommandLineTests.Run(args);
 
     /// <summary>An untrained model: the plumbing does not depend on accuracy.</summary>
-    private string SmallModel()
-    {
-        var path = Path.Combine(_dir, "small.hlm");
-        using var model = HandLine.Model.LineModel.Create(HandLine.Model.CharacterSet.Default,
-            new HandLine.Features.FeatureConfig(LineHeight: 24, FrameStride: 3), new HandLine.Model.NetworkConfig(8, 1), 1);
-        model.Save(path, null, null);
-        return path;
-    }
+    private string SmallModel() => BatchTestSupport.SmallModel(_dir);
 
     [Fact]
     public void LmThenBeamTranscriptionWithLexiconAndLmThenCalibrate()

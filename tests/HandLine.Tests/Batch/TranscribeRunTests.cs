@@ -14,14 +14,7 @@ public sealed class TranscribeRunTests : IDisposable
     private static string Demo => Path.Combine(TestPaths.Fixtures, "demo");
 
     /// <summary>A small untrained model with the default character set: the batch mechanics do not depend on accuracy.</summary>
-    private string SmallModel()
-    {
-        var path = Path.Combine(_dir, "small.hlm");
-        using var model = HandLine.Model.LineModel.Create(HandLine.Model.CharacterSet.Default,
-            new HandLine.Features.FeatureConfig(LineHeight: 24, FrameStride: 3), new HandLine.Model.NetworkConfig(8, 1), 1);
-        model.Save(path, null, null);
-        return path;
-    }
+    private string SmallModel() => BatchTestSupport.SmallModel(_dir);
 
     [Fact]
     public void TranscribingTheDemoManifestWritesEveryOutput()
