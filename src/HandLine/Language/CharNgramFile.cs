@@ -50,15 +50,7 @@ public static class CharNgramFile
     public static CharNgramModel Load(string path)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(path);
-        byte[] bytes;
-        try
-        {
-            bytes = File.ReadAllBytes(path);
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or NotSupportedException)
-        {
-            throw new InputException(path, Stage, $"cannot read the language model: {e.Message}", e);
-        }
+        var bytes = InputFile.ReadAllBytes(path, Stage, "language model");
         InputException Bad(string reason) => new(path, Stage, reason);
 
         if (bytes.Length < Magic.Length || !bytes.AsSpan(0, Magic.Length).SequenceEqual(Magic))

@@ -95,15 +95,7 @@ public sealed class Lexicon
     public static Lexicon Load(string path)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(path);
-        byte[] bytes;
-        try
-        {
-            bytes = File.ReadAllBytes(path);
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or NotSupportedException)
-        {
-            throw new InputException(path, Stage, $"cannot read the word list: {e.Message}", e);
-        }
+        var bytes = InputFile.ReadAllBytes(path, Stage, "word list");
 
         var counts = new Dictionary<string, long>(StringComparer.Ordinal);
         var lineOf = new Dictionary<string, int>(StringComparer.Ordinal);

@@ -62,16 +62,7 @@ public static class ModelFile
     /// <summary>Reads and checks a model file; throws <see cref="InputException"/> naming the problem.</summary>
     public static LineModel Load(string path)
     {
-        byte[] bytes;
-        try
-        {
-            bytes = File.ReadAllBytes(path);
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-        {
-            throw new InputException(path, "model", $"cannot read the model file: {e.Message}", e);
-        }
-        return Load(bytes, path);
+        return Load(InputFile.ReadAllBytes(path, "model", "model file"), path);
     }
 
     public static LineModel Load(byte[] bytes, string nameForErrors)

@@ -23,15 +23,7 @@ public static class Manifest
     public static ManifestReadResult Read(string tsvPath)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(tsvPath);
-        byte[] bytes;
-        try
-        {
-            bytes = File.ReadAllBytes(tsvPath);
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or NotSupportedException)
-        {
-            throw new InputException(tsvPath, "read", $"cannot read the manifest: {e.Message}", e);
-        }
+        var bytes = InputFile.ReadAllBytes(tsvPath, "read", "manifest");
 
         var folder = Path.GetDirectoryName(Path.GetFullPath(tsvPath))!;
         var entries = new List<ManifestEntry>();
