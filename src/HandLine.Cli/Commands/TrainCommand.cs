@@ -27,10 +27,12 @@ internal static class TrainCommand
         var height = new Option<int>("--line-height") { DefaultValueFactory = _ => 40, Description = "Normalised line height (new models)" };
         var stride = new Option<int>("--frame-stride") { DefaultValueFactory = _ => 2, Description = "Columns per frame (new models)" };
         var geometric = new Option<bool>("--geometric") { Description = "Add geometric column features (new models)" };
+        var noAugment = new Option<bool>("--no-augment") { Description = "Train on the stored lines as they are, without fresh distortions each epoch" };
+        var maxLines = new Option<long>("--max-lines") { Description = "Stop after this many training lines in total (a fixed budget for comparisons; 0 = no limit)" };
 
         var command = new Command("train", "Train a model with CTC loss on manifest lines, keeping the best by validation CER")
         {
-            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric,
+            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric, maxLines, noAugment,
         };
         // The work runs on a worker thread so the Ctrl+C handler is in place while it runs: a stop then
         // ends the current batch, saves a checkpoint and leaves a resumable run.
@@ -41,6 +43,8 @@ internal static class TrainCommand
                 Epochs = parse.GetValue(epochs), MaxMinutes = parse.GetValue(maxMinutes), BatchSize = parse.GetValue(batch),
                 Seed = parse.GetValue(seed), Threads = parse.GetValue(threads), Resume = parse.GetValue(resume),
                 LearningRate = parse.GetValue(lr),
+                Augmentation = parse.GetValue(noAugment) ? null : new Augmentation(),
+                MaxBatches = (parse.GetValue(maxLines) + parse.GetValue(batch) - 1) / Math.Max(1, parse.GetValue(batch)),
             };
             options.Validate();
             var fromPath = parse.GetValue(from);

@@ -25,10 +25,6 @@ public static class LineRenderer
         // Independent streams, so switching one effect on or off leaves the others' noise unchanged.
         var master = new Random(d.Seed);
         var glyphRng = new Random(master.Next());
-        var elasticNoise = new PixelNoise(master.Next());
-        var paperNoise = new PixelNoise(master.Next());
-        var fadeRng = new Random(master.Next());
-        var pixelNoise = new PixelNoise(master.Next());
 
         using var path = Layout(text, font, d, glyphRng, out var baseline, out var b);
         var margin = (float)(d.StrokeWidthPx / 2 + 3 * d.ElasticAlphaPx + 2 * d.BlurSigmaPx + 1);
@@ -42,6 +38,20 @@ public static class LineRenderer
         baseline = new Baseline(baseline.X - left, baseline.Y - top, baseline.AngleRadians);
 
         var ink = Rasterise(path, w, h, d.StrokeWidthPx);
+        return Finish(ink, w, h, d, baseline, master);
+    }
+
+    /// <summary>
+    /// The degradations that act on drawn ink, shared by font lines and digit lines: erosion, elastic
+    /// distortion, fading, paper, ruling, show-through, lighting, blur, noise and JPEG. <paramref name="master"/>
+    /// supplies the effects' independent random streams.
+    /// </summary>
+    internal static GrayImage Finish(float[] ink, int w, int h, Degradation d, Baseline baseline, Random master)
+    {
+        var elasticNoise = new PixelNoise(master.Next());
+        var paperNoise = new PixelNoise(master.Next());
+        var fadeRng = new Random(master.Next());
+        var pixelNoise = new PixelNoise(master.Next());
         RasterOps.Erode(ink, w, h, d.Erosion);
         if (d.ElasticAlphaPx > 0)
         {
@@ -69,7 +79,7 @@ public static class LineRenderer
     }
 
     /// <summary>Where the writing line starts on the canvas and its anticlockwise angle, for ruling.</summary>
-    private readonly record struct Baseline(float X, float Y, double AngleRadians);
+    internal readonly record struct Baseline(float X, float Y, double AngleRadians);
 
     /// <summary>All glyph outlines placed on one path, in unpadded coordinates.</summary>
     private static SKPath Layout(
@@ -127,7 +137,7 @@ public static class LineRenderer
     }
 
     /// <summary>Ink coverage in [0, 1] from an antialiased fill, plus an outline stroke to thicken.</summary>
-    private static float[] Rasterise(SKPath path, int w, int h, double strokeWidth)
+    internal static float[] Rasterise(SKPath path, int w, int h, double strokeWidth)
     {
         if (path.IsEmpty)
             return new float[w * h];

@@ -27,9 +27,11 @@ public static class LineSynthesiser
         Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping,
     };
 
-    private sealed record Plan(int Index, string RelativePath, string Text, FontFace Font, Degradation Degradation);
+    private sealed record Plan(int Index, string RelativePath, string Text, FontFace Font, Degradation Degradation, int[]? Mnist);
 
-    private sealed record DegradationRow(string Path, string Font, string Text, Degradation Degradation);
+    // Mnist: the sample index of each digit, in text order (digit lines only).
+    private sealed record DegradationRow(string Path, string Font, string Text, Degradation Degradation,
+        [property: System.Text.Json.Serialization.JsonIgnore(Condition = System.Text.Json.Serialization.JsonIgnoreCondition.WhenWritingNull)] int[]? Mnist);
 
     public static SynthesisSummary Generate(SynthesisRequest request, TextWriter? log)
     {
@@ -54,9 +56,11 @@ public static class LineSynthesiser
         var skipped = new List<SkippedLine>();
         for (var i = 0; i < request.Count; i++)
         {
-            var raw = userTexts is null ? generator.Next() : userTexts[i % userTexts.Count];
+            var raw = userTexts is not null ? userTexts[i % userTexts.Count]
+                : request.Digits is not null ? DigitLineText.Next(rng) : generator.Next();
             var text = TextUnits.ToNfc(raw ?? "").Trim();
-            var font = PickFont(text, request.Fonts, rng, out var reason);
+            // Digit lines need the font only for what is not a digit.
+            var font = PickFont(text, request.Fonts, rng, out var reason, request.Digits is null ? text : WithoutDigits(text));
             if (font is null)
             {
                 skipped.Add(new SkippedLine(i, text, reason!));
@@ -64,25 +68,27 @@ public static class LineSynthesiser
                 continue;
             }
             var path = string.Create(CultureInfo.InvariantCulture, $"{ImagesFolder}/{plans.Count:D6}.png");
-            plans.Add(new Plan(i, path, text, font, Degradation.Sample(rng, ranges)));
+            var degradation = Degradation.Sample(rng, ranges);
+            plans.Add(new Plan(i, path, text, font, degradation, request.Digits is null ? null : PickSamples(text, request.Digits, rng)));
         }
 
         for (var start = 0; start < plans.Count; start += BatchSize)
         {
             var end = Math.Min(plans.Count, start + BatchSize);
             // Each render depends only on its plan, so the order of work does not change any byte.
-            Parallel.For(start, end, k => WriteImage(plans[k], outDir));
+            Parallel.For(start, end, k => WriteImage(plans[k], outDir, request.Digits));
             log?.WriteLine($"synthesis: {end}/{plans.Count} lines drawn");
         }
 
         var manifest = new StringBuilder();
         manifest.Append(CultureInfo.InvariantCulture,
-            $"# synthetic lines: seed {request.Seed}, {plans.Count} lines, {request.Fonts.Fonts.Count} fonts\n");
+            $"# synthetic lines: seed {request.Seed}, {plans.Count} lines, {request.Fonts.Fonts.Count} fonts")
+            .Append(request.Digits is null ? "" : $", MNIST digits ({request.Digits.Split} split)").Append('\n');
         var jsonl = new StringBuilder();
         foreach (var p in plans)
         {
             manifest.Append(p.RelativePath).Append('\t').Append(p.Text).Append('\n');
-            jsonl.Append(JsonSerializer.Serialize(new DegradationRow(p.RelativePath, p.Font.Name, p.Text, p.Degradation), Json))
+            jsonl.Append(JsonSerializer.Serialize(new DegradationRow(p.RelativePath, p.Font.Name, p.Text, p.Degradation, p.Mnist), Json))
                 .Append('\n');
         }
         var manifestPath = Path.Combine(outDir, ManifestName);
@@ -127,14 +133,14 @@ public static class LineSynthesiser
     }
 
     /// <summary>A font drawn at random among those with real glyphs for all of the text.</summary>
-    private static FontFace? PickFont(string text, FontCatalog fonts, Random rng, out string? reason)
+    private static FontFace? PickFont(string text, FontCatalog fonts, Random rng, out string? reason, string? drawnText = null)
     {
         if (text.Length == 0)
         {
             reason = "empty line";
             return null;
         }
-        var covering = fonts.Fonts.Where(f => f.Covers(text)).ToList();
+        var covering = fonts.Fonts.Where(f => f.Covers(drawnText ?? text)).ToList();
         if (covering.Count == 0)
         {
             var missing = text.EnumerateRunes()
@@ -156,9 +162,23 @@ public static class LineSynthesiser
         return covering[rng.Next(covering.Count)];
     }
 
-    private static void WriteImage(Plan plan, string outDir)
+    private static string WithoutDigits(string text) => string.Concat(text.Where(c => c is < '0' or > '9'));
+
+    /// <summary>One MNIST sample per digit of the text, drawn from the digit's samples in the split.</summary>
+    private static int[] PickSamples(string text, DigitSource source, Random rng) =>
+        text.Where(c => c is >= '0' and <= '9').Select(c =>
+        {
+            var available = source.Digits.Available(c - '0', source.Split);
+            if (available.Count == 0)
+                throw new InvalidOperationException($"No {source.Split} samples of digit {c} in {source.Digits.Source}.");
+            return available[rng.Next(available.Count)];
+        }).ToArray();
+
+    private static void WriteImage(Plan plan, string outDir, DigitSource? digits)
     {
-        var image = LineRenderer.Render(plan.Text, plan.Font, plan.Degradation);
+        var image = digits is null
+            ? LineRenderer.Render(plan.Text, plan.Font, plan.Degradation)
+            : DigitLineRenderer.Render(plan.Text, plan.Mnist!, digits.Digits, digits.Split, plan.Font, plan.Degradation);
         WriteAtomically(Path.Combine(outDir, plan.RelativePath), EncodePng(image));
     }
 

@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using System.Globalization;
 using HandLine.Decoding;
+using HandLine.Features;
 using HandLine.Model;
 using HandLine.Scoring;
 using TorchSharp;
@@ -178,9 +179,9 @@ public sealed class Trainer
         return sum / Math.Max(1, lines.Count);
     }
 
-    private static Tensor CtcLoss(LineNetwork network, IReadOnlyList<LineSample> batch)
+    private static Tensor CtcLoss(LineNetwork network, IReadOnlyList<LineSample> batch, IReadOnlyList<FeatureSequence>? features = null)
     {
-        var (frames, lengths) = Batching.Stack(batch.Select(s => s.Features).ToArray());
+        var (frames, lengths) = Batching.Stack(features ?? batch.Select(s => s.Features).ToArray());
         var logProbs = network.call(frames, lengths);
         var targets = tensor(batch.SelectMany(s => s.Target.Select(c => (long)c)).ToArray());
         var targetLengths = tensor(batch.Select(s => (long)s.Target.Length).ToArray());
@@ -193,12 +194,13 @@ public sealed class Trainer
         using var scope = NewDisposeScope();
         optimizer.zero_grad();
         network.train();
+        var features = Features(batch, options, epoch, index);
         Tensor loss;
         // Dropout draws from torch's generator: seed it per batch so a resumed run repeats the same masks.
         lock (TorchRuntime.RandomLock)
         {
             TorchRuntime.Seed(((long)options.Seed * 1_000_003L) + (epoch * 100_003L) + index);
-            loss = CtcLoss(network, batch);
+            loss = CtcLoss(network, batch, features);
         }
         loss.backward();
         nn.utils.clip_grad_norm_(network.parameters(), options.ClipNorm);
@@ -206,12 +208,42 @@ public sealed class Trainer
         return loss.item<float>();
     }
 
+    /// <summary>
+    /// The batch's features, each line distorted afresh when augmentation is on. The distortion's generator is
+    /// seeded from (seed, epoch, batch, line), so a resumed run draws exactly what an uninterrupted one did.
+    /// </summary>
+    internal static FeatureSequence[] Features(IReadOnlyList<LineSample> batch, TrainingOptions options, int epoch, int index)
+    {
+        var result = new FeatureSequence[batch.Count];
+        for (var i = 0; i < batch.Count; i++)
+        {
+            var s = batch[i];
+            result[i] = options.Augmentation is null
+                ? s.Features
+                : s.FeaturesOf(options.Augmentation.Apply(s.Ink(), new Random(LineSeed(options.Seed, epoch, index, i))));
+        }
+        return result;
+    }
+
+    /// <summary>
+    /// A fixed mix (SplitMix64 finaliser) of the run seed and a line's place in the run. Not HashCode.Combine:
+    /// that is randomised per process, and a resumed run is a new process.
+    /// </summary>
+    internal static int LineSeed(int seed, int epoch, int batch, int line)
+    {
+        var z = unchecked((ulong)seed * 0x9E3779B97F4A7C15UL + (ulong)epoch * 0xBF58476D1CE4E5B9UL
+                          + (ulong)batch * 0x94D049BB133111EBUL + (ulong)line);
+        z = unchecked((z ^ (z >> 30)) * 0xBF58476D1CE4E5B9UL);
+        z = unchecked((z ^ (z >> 27)) * 0x94D049BB133111EBUL);
+        return (int)((z ^ (z >> 31)) & int.MaxValue);
+    }
+
     /// <summary>Batches of similar width (less padding), in an order shuffled per epoch from the seed.</summary>
     internal static List<LineSample[]> BatchOrder(IReadOnlyList<LineSample> train, int batchSize, int seed, int epoch)
     {
         var rng = new Random(HashCode.Combine(seed, epoch));
         // Sort by width with a random tie-break so bucket membership varies between epochs.
-        var order = train.Select((s, i) => (s, key: s.Features.Frames + rng.NextDouble() * 8, i))
+        var order = train.Select((s, i) => (s, key: s.Frames + rng.NextDouble() * 8, i))
             .OrderBy(x => x.key).ThenBy(x => x.i).Select(x => x.s).ToArray();
         var batches = order.Chunk(batchSize).ToList();
         for (var i = batches.Count - 1; i > 0; i--)

@@ -36,10 +36,10 @@ public static class TrainingData
                 if (!charset.CanEncode(e.Text))
                     throw new InputException(e.FullPath, "manifest",
                         $"transcript has characters outside the model's character set: {string.Concat(e.Text.EnumerateRunes().Select(r => r.ToString()).Where(s => !charset.Contains(s)).Distinct())}");
-                var prepared = LinePreparation.Prepare(ImageLoader.Load(e.FullPath, imaging), features, imaging, e.FullPath);
-                if (!prepared.Line.HasInk)
+                var line = LineNormaliser.Normalise(ImageLoader.Load(e.FullPath, imaging), imaging, e.FullPath);
+                if (!line.HasInk)
                     throw new InputException(e.FullPath, "normalise", "no ink found: the image looks blank");
-                samples[i] = new LineSample(e.RelativePath, e.Text, prepared.Features, charset.Encode(e.Text));
+                samples[i] = new LineSample(e.RelativePath, e.Text, line.Ink, features, charset.Encode(e.Text));
             }
             catch (InputException ex)
             {

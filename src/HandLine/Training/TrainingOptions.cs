@@ -35,8 +35,12 @@ public sealed record TrainingOptions
     /// <summary>Stop after this many batches in total (tests and interruption drills); 0 = no limit.</summary>
     public long MaxBatches { get; init; }
 
+    /// <summary>Distort training lines afresh each time they are seen; null = train on the stored lines as they are.</summary>
+    public Augmentation? Augmentation { get; init; }
+
     public void Validate()
     {
+        Augmentation?.Validate();
         if (Epochs < 1) throw new ArgumentException("epochs must be at least 1");
         if (BatchSize is < 1 or > 1024) throw new ArgumentException("batch size must be 1..1024");
         if (LearningRate is <= 0 or > 1) throw new ArgumentException("learning rate must be in (0, 1]");

