@@ -3,6 +3,7 @@ using System.Globalization;
 using HandLine.Features;
 using HandLine.Imaging;
 using HandLine.Model;
+using HandLine.Scoring;
 using HandLine.Training;
 
 namespace HandLine.Cli.Commands;
@@ -48,11 +49,28 @@ internal static class TrainCommand
             };
             options.Validate();
             var fromPath = parse.GetValue(from);
-            using var model = fromPath is null
-                ? LineModel.Create(CharacterSet.Default,
-                    new FeatureConfig(parse.GetValue(height), parse.GetValue(geometric), parse.GetValue(stride)),
-                    new NetworkConfig(parse.GetValue(hidden), parse.GetValue(layers)), options.Seed)
-                : ModelFile.Load(fromPath);
+            // Symbols the training transcripts need beyond the starting set join it, so no training line is lost
+            // for want of a class; symbols found only in validation lines do not (those lines are skipped below).
+            var trainTexts = parse.GetValue(train)!.SelectMany(m => Manifest.Read(m).Entries.Select(e => e.Text)).ToList();
+            string? fromId = null;
+            LineModel Open()
+            {
+                if (fromPath is null)
+                {
+                    var added = CharacterSet.Default.MissingSymbols(trainTexts);
+                    ReportGrowth(added);
+                    return LineModel.Create(CharacterSet.Default.Append(added),
+                        new FeatureConfig(parse.GetValue(height), parse.GetValue(geometric), parse.GetValue(stride)),
+                        new NetworkConfig(parse.GetValue(hidden), parse.GetValue(layers)), options.Seed);
+                }
+                var loaded = ModelFile.Load(fromPath);
+                fromId = loaded.Id;
+                var missing = loaded.Charset.MissingSymbols(trainTexts);
+                if (missing.Count == 0) return loaded;
+                ReportGrowth(missing);
+                using (loaded) return loaded.WithSymbols(missing, options.Seed);
+            }
+            using var model = Open();
 
             var limits = new ImagingOptions();
             var clock = System.Diagnostics.Stopwatch.StartNew();
@@ -66,7 +84,7 @@ internal static class TrainCommand
             var recipe = new TrainingRecord(
                 "handline train " + string.Join(' ', Environment.GetCommandLineArgs().Skip(1).SkipWhile(a => a != "train").Skip(1)),
                 parse.GetValue(train)!.Select(Path.GetFileName).OfType<string>().ToArray(), Path.GetFileName(parse.GetValue(valid)),
-                options.Seed, 0, 0, 0, fromPath is null ? null : model.Id);
+                options.Seed, 0, 0, 0, fromId);
             var result = new Trainer(Console.Error, interactive: !Console.IsErrorRedirected)
                 .Train(model, trainSet, validSet, parse.GetValue(outPath)!, options, recipe, cancel);
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
@@ -74,5 +92,13 @@ internal static class TrainCommand
             return cancel.IsCancellationRequested ? ExitCodes.Cancelled : ExitCodes.Ok;
         })));
         return command;
+    }
+
+    private static void ReportGrowth(IReadOnlyList<string> added)
+    {
+        if (added.Count == 0) return;
+        // Code points as well as glyphs: an added space-like or invisible symbol is otherwise easy to miss.
+        Console.Error.WriteLine($"character set grows by {added.Count}: " + string.Join(", ",
+            added.Select(s => string.Create(CultureInfo.InvariantCulture, $"{s} (U+{char.ConvertToUtf32(s, 0):X4})"))));
     }
 }

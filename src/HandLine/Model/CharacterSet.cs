@@ -1,3 +1,5 @@
+using System.Text;
+
 namespace HandLine.Model;
 
 /// <summary>
@@ -60,6 +62,46 @@ public sealed class CharacterSet
             classes[i] = k + 1;
         }
         return classes;
+    }
+
+    /// <summary>
+    /// The symbols of the texts that are not in this set, each once, in code point order: the same texts give
+    /// the same order whatever order they come in, so a grown model's classes do not depend on line order.
+    /// </summary>
+    public IReadOnlyList<string> MissingSymbols(IEnumerable<string> texts)
+    {
+        ArgumentNullException.ThrowIfNull(texts);
+        var missing = new SortedSet<Rune>();
+        foreach (var text in texts)
+            foreach (var r in Scoring.TextUnits.ToNfc(text).EnumerateRunes())
+                if (!_index.ContainsKey(r.ToString()))
+                    missing.Add(r);
+        return missing.Select(r => r.ToString()).ToArray();
+    }
+
+    /// <summary>
+    /// This set with <paramref name="symbols"/> added at the end, so every existing symbol keeps its class.
+    /// Throws for a symbol already in the set, or one the model file could not store (see below).
+    /// </summary>
+    public CharacterSet Append(IEnumerable<string> symbols)
+    {
+        ArgumentNullException.ThrowIfNull(symbols);
+        var added = symbols.ToArray();
+        foreach (var s in added)
+            if (Contains(s))
+                throw new ArgumentException($"Symbol '{s}' is already in the character set.", nameof(symbols));
+        var grown = new CharacterSet(_symbols.Concat(added));
+        // A model file stores the set as one NFC string, so a symbol that normalises differently, or that
+        // composes with the symbol before it (a combining accent after a new letter), would not come back.
+        var stored = FromString(grown.ToString());
+        if (!stored.Symbols.SequenceEqual(grown.Symbols, StringComparer.Ordinal))
+        {
+            var bad = added.FirstOrDefault(s => !stored.Contains(s)) ?? added[0];
+            throw new ArgumentException(
+                $"Symbol '{bad}' (U+{Rune.GetRuneAt(bad, 0).Value:X4}) would not survive Unicode normalisation (NFC) in the model file.",
+                nameof(symbols));
+        }
+        return grown;
     }
 
     /// <summary>True when every character of the text is in the set.</summary>

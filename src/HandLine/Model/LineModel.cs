@@ -43,6 +43,34 @@ public sealed class LineModel : IDisposable
         return new LineModel(header, charset, net, "unsaved");
     }
 
+    /// <summary>
+    /// A copy of this model that can also write <paramref name="symbols"/>, for fine-tuning on text with symbols
+    /// it lacks. The symbols join the end of the character set, so every old class keeps its index (blank stays
+    /// 0), and the output layer gains one row per symbol; everything else is copied exactly. The same seed gives
+    /// the same new rows. The header keeps its features and network shape; its validation CER is dropped, as it
+    /// measured a different model.
+    /// </summary>
+    public LineModel WithSymbols(IEnumerable<string> symbols, int seed)
+    {
+        var charset = Charset.Append(symbols);
+        if (charset.Count == Charset.Count) throw new ArgumentException("No symbols to add.", nameof(symbols));
+        LineNetwork grown;
+        lock (TorchRuntime.RandomLock)
+        {
+            TorchRuntime.Seed(seed);
+            grown = new LineNetwork(Features.FrameDimension, Header.Network, charset.ClassCount);
+        }
+        // New rows: a tenth of the usual random initialisation and a bias equal to the lowest old bias, so a new
+        // symbol starts with the weakest prior of any known symbol and almost no say from the input. The old
+        // posteriors then move only by log(1 - p(new)) per frame (at most 0.01 for the bundled model on the demo
+        // lines), and the model reads as before until fine-tuning teaches the new rows. Their gradient (posterior
+        // minus target) does not shrink with a small posterior, so they still learn quickly, and the random
+        // weights keep several new symbols from starting identical.
+        grown.CopyGrowingOutputs(Network, newRowScale: 0.1);
+        var header = Header with { Charset = charset.ToString(), ValidationCer = null };
+        return new LineModel(header, charset, grown, "unsaved");
+    }
+
     /// <summary>Saves with an updated header; returns the new model id.</summary>
     public string Save(string path, TrainingRecord? training, double? validationCer) =>
         ModelFile.Save(path, Header with

@@ -38,6 +38,35 @@ public sealed class LineNetwork : nn.Module<Tensor, Tensor, Tensor>
         }
     }
 
-    /// <summary>The output layer, exposed so fine-tuning can grow the character set.</summary>
-    internal Linear Output => output;
+    /// <summary>
+    /// Makes this network (same input size and shape, at least as many classes) a copy of <paramref name="source"/>
+    /// for fine-tuning with a larger character set. Every weight is copied exactly; the output rows the source
+    /// lacks keep this network's own random initialisation scaled by <paramref name="newRowScale"/>, with biases
+    /// set to the smallest of the source's output biases.
+    /// </summary>
+    internal void CopyGrowingOutputs(LineNetwork source, double newRowScale)
+    {
+        var sourceParameters = source.named_parameters().ToDictionary(p => p.name, p => p.parameter);
+        var oldClasses = source.output.weight!.shape[0];
+        using var noGrad = no_grad();
+        using var scope = NewDisposeScope(); // the views below
+        foreach (var (name, target) in named_parameters())
+        {
+            var from = sourceParameters[name];
+            if (ReferenceEquals(target, output.weight))
+            {
+                target.narrow(0, oldClasses, target.shape[0] - oldClasses).mul_(newRowScale);
+                target.narrow(0, 0, oldClasses).copy_(from);
+            }
+            else if (ReferenceEquals(target, output.bias))
+            {
+                target.narrow(0, oldClasses, target.shape[0] - oldClasses).fill_(from.min().item<float>());
+                target.narrow(0, 0, oldClasses).copy_(from);
+            }
+            else
+            {
+                target.copy_(from);
+            }
+        }
+    }
 }

@@ -241,7 +241,8 @@ public sealed class Trainer
     /// <summary>Batches of similar width (less padding), in an order shuffled per epoch from the seed.</summary>
     internal static List<LineSample[]> BatchOrder(IReadOnlyList<LineSample> train, int batchSize, int seed, int epoch)
     {
-        var rng = new Random(HashCode.Combine(seed, epoch));
+        // Not HashCode.Combine: it is randomised per process, and a resumed run is a new process.
+        var rng = new Random(unchecked((seed * 1_000_003) + epoch));
         // Sort by width with a random tie-break so bucket membership varies between epochs.
         var order = train.Select((s, i) => (s, key: s.Frames + rng.NextDouble() * 8, i))
             .OrderBy(x => x.key).ThenBy(x => x.i).Select(x => x.s).ToArray();
