@@ -243,7 +243,7 @@ public sealed class GrowingCharacterSetTests(ITestOutputHelper output) : IDispos
             var image = LineSynthesiser.RenderOne(text, SynthesisFixtures.Catalog, rng, DegradationRanges.None)
                         ?? throw new InvalidOperationException($"no fixture font draws '{text}'");
             var prepared = LinePreparation.Prepare(image.Image, features, imaging);
-            lines.Add(new LineSample($"line{lines.Count}", text, prepared.Features, charset.Encode(text)));
+            lines.Add(new LineSample($"line{lines.Count}", text, prepared.Line.Ink, features, charset.Encode(text)));
         }
         return lines;
     }
