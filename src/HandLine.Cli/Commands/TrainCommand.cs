@@ -29,11 +29,12 @@ internal static class TrainCommand
         var stride = new Option<int>("--frame-stride") { DefaultValueFactory = _ => 2, Description = "Columns per frame (new models)" };
         var geometric = new Option<bool>("--geometric") { Description = "Add geometric column features (new models)" };
         var noAugment = new Option<bool>("--no-augment") { Description = "Train on the stored lines as they are, without fresh distortions each epoch" };
+        var epochLines = new Option<long>("--epoch-lines") { Description = "Lines per epoch, so large sets are validated more often than once a pass (0 = one pass)" };
         var maxLines = new Option<long>("--max-lines") { Description = "Stop after this many training lines in total (a fixed budget for comparisons; 0 = no limit)" };
 
         var command = new Command("train", "Train a model with CTC loss on manifest lines, keeping the best by validation CER")
         {
-            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric, maxLines, noAugment,
+            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric, maxLines, noAugment, epochLines,
         };
         // The work runs on a worker thread so the Ctrl+C handler is in place while it runs: a stop then
         // ends the current batch, saves a checkpoint and leaves a resumable run.
@@ -44,6 +45,7 @@ internal static class TrainCommand
                 Epochs = parse.GetValue(epochs), MaxMinutes = parse.GetValue(maxMinutes), BatchSize = parse.GetValue(batch),
                 Seed = parse.GetValue(seed), Threads = parse.GetValue(threads), Resume = parse.GetValue(resume),
                 LearningRate = parse.GetValue(lr),
+                EpochLines = parse.GetValue(epochLines),
                 Augmentation = parse.GetValue(noAugment) ? null : new Augmentation(),
                 MaxBatches = (parse.GetValue(maxLines) + parse.GetValue(batch) - 1) / Math.Max(1, parse.GetValue(batch)),
             };

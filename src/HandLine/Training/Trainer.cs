@@ -60,7 +60,12 @@ public sealed class Trainer
         }
         SetLearningRate(optimizer, state.LearningRate);
 
-        var batchesPerEpoch = (train.Count + options.BatchSize - 1) / options.BatchSize;
+        var batchesPerPass = (train.Count + options.BatchSize - 1) / options.BatchSize;
+        // An "epoch" is one pass over the lines, or a fixed number of lines when EpochLines is set, so a large
+        // set still gets validation, step-size halving and best-model saves within one pass.
+        var batchesPerEpoch = options.EpochLines > 0
+            ? (int)Math.Max(1, (options.EpochLines + options.BatchSize - 1) / options.BatchSize)
+            : batchesPerPass;
         var clock = Stopwatch.StartNew();
         var startMinutes = state.Minutes;
         var lastCheckpoint = clock.Elapsed;
@@ -71,7 +76,7 @@ public sealed class Trainer
 
         while (state.Epoch < options.Epochs && !stopped)
         {
-            var batches = BatchOrder(train, options.BatchSize, options.Seed, state.Epoch);
+            var batches = EpochBatches(train, options, state.Epoch, batchesPerEpoch, batchesPerPass);
             for (var b = state.Batch; b < batches.Count; b++)
             {
                 var loss = Step(network, optimizer, batches[b], options, state.Epoch, b);
@@ -238,7 +243,31 @@ public sealed class Trainer
         return (int)((z ^ (z >> 31)) & int.MaxValue);
     }
 
-    /// <summary>Batches of similar width (less padding), in an order shuffled per epoch from the seed.</summary>
+    /// <summary>
+    /// The batches of one epoch: a stretch of the endless sequence of passes, each pass in its own shuffled
+    /// order. Without EpochLines an epoch is exactly one pass.
+    /// </summary>
+    internal static List<LineSample[]> EpochBatches(IReadOnlyList<LineSample> train, TrainingOptions options, int epoch, int batchesPerEpoch, int batchesPerPass)
+    {
+        if (batchesPerEpoch == batchesPerPass && options.EpochLines <= 0)
+            return BatchOrder(train, options.BatchSize, options.Seed, epoch);
+        var result = new List<LineSample[]>(batchesPerEpoch);
+        List<LineSample[]>? order = null;
+        var orderPass = -1;
+        for (var g = (long)epoch * batchesPerEpoch; g < (long)(epoch + 1) * batchesPerEpoch; g++)
+        {
+            var pass = (int)(g / batchesPerPass);
+            if (pass != orderPass)
+            {
+                order = BatchOrder(train, options.BatchSize, options.Seed, pass);
+                orderPass = pass;
+            }
+            result.Add(order![(int)(g % batchesPerPass)]);
+        }
+        return result;
+    }
+
+    /// <summary>Batches of similar width (less padding), in an order shuffled per pass from the seed.</summary>
     internal static List<LineSample[]> BatchOrder(IReadOnlyList<LineSample> train, int batchSize, int seed, int epoch)
     {
         // Not HashCode.Combine: it is randomised per process, and a resumed run is a new process.

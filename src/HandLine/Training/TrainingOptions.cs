@@ -35,6 +35,9 @@ public sealed record TrainingOptions
     /// <summary>Stop after this many batches in total (tests and interruption drills); 0 = no limit.</summary>
     public long MaxBatches { get; init; }
 
+    /// <summary>Lines per epoch (validation, schedule and saves happen at epoch ends); 0 = one pass over the set.</summary>
+    public long EpochLines { get; init; }
+
     /// <summary>Distort training lines afresh each time they are seen; null = train on the stored lines as they are.</summary>
     public Augmentation? Augmentation { get; init; }
 
@@ -45,6 +48,7 @@ public sealed record TrainingOptions
         if (BatchSize is < 1 or > 1024) throw new ArgumentException("batch size must be 1..1024");
         if (LearningRate is <= 0 or > 1) throw new ArgumentException("learning rate must be in (0, 1]");
         if (MaxMinutes < 0) throw new ArgumentException("max minutes must not be negative");
+        if (EpochLines < 0) throw new ArgumentException("epoch lines must not be negative");
         if (Threads < 0) throw new ArgumentException("threads must not be negative");
     }
 }

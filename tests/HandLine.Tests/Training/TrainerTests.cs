@@ -98,4 +98,16 @@ public sealed class TrainerTests : IDisposable
         var wholeSpread = lines.Max(l => l.Frames) - lines.Min(l => l.Frames);
         Assert.All(a, batch => Assert.True(batch.Max(s => s.Frames) - batch.Min(s => s.Frames) <= wholeSpread / 2 + 8));
     }
+
+    [Fact]
+    public void EpochsOfAFixedLineCountWalkThroughWholeShuffledPasses()
+    {
+        var lines = PatternLines(40, 5);
+        var options = new TrainingOptions { BatchSize = 8, Seed = 1, EpochLines = 24 }; // 3 batches an epoch, 5 a pass
+        var walked = Enumerable.Range(0, 5).SelectMany(e => Trainer.EpochBatches(lines, options, e, 3, 5));
+        var passes = Enumerable.Range(0, 3).SelectMany(p => Trainer.BatchOrder(lines, 8, 1, p));
+        Assert.Equal(passes.Select(b => string.Join(",", b.Select(x => x.Id))), walked.Select(b => string.Join(",", b.Select(x => x.Id))));
+        // Consecutive passes are shuffled differently.
+        Assert.NotEqual(Trainer.BatchOrder(lines, 8, 1, 0).Select(b => b[0].Id), Trainer.BatchOrder(lines, 8, 1, 1).Select(b => b[0].Id));
+    }
 }
