@@ -1,15 +1,16 @@
 #!/usr/bin/env bash
-# Recipe for the bundled default model (models/default.hlm). Every step is resumable: rerun the script after an
-# interruption and it picks up where it stopped (existing synthetic sets are kept; training resumes from its
-# checkpoint). Usage: tools/train-default.sh [TRAIN_LINES] [MAX_MINUTES]
+# Recipe for the bundled default model (models/default.hlm), in two stages. Every step is resumable: rerun the
+# script after an interruption and it picks up where it stopped (existing synthetic sets are kept; training
+# resumes from its checkpoint). Usage: tools/train-default.sh [STAGE1_MINUTES] [STAGE2_MINUTES]
 set -euo pipefail
 cd "$(dirname "$0")/.."
-train_lines="${1:-60000}"
-max_minutes="${2:-60}"
+stage1_minutes="${1:-105}"
+stage2_minutes="${2:-75}"
 work=.cache
 hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 
 bash tools/fetch-fonts.sh "$work/fonts"
+bash tools/fetch-mnist.sh "$work/mnist"
 dotnet build src/HandLine.Cli -c Release -v q
 
 # Styles kept out of training: validation CER is measured on hands the model never saw.
@@ -24,10 +25,27 @@ for f in "$work"/fonts/debian/* "$work"/fonts/npm/*; do
 done
 echo "fonts: $(ls "$work/fonts/train" | wc -l) for training, $(ls "$work/fonts/valid" | wc -l) held out"
 
-[ -s "$work/synth/train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count "$train_lines" --seed 11 --out "$work/synth/train"
-[ -s "$work/synth/valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 12 --out "$work/synth/valid"
+# Synthetic sets: ledger and register phrases in the training fonts, real MNIST digits (training split,
+# samples 0-499) with separators in the training fonts, and the held-out validation sets.
+s=$work/synth
+[ -s "$s/train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 60000 --seed 11 --out "$s/train"
+[ -s "$s/train2/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 140000 --seed 13 --out "$s/train2"
+[ -s "$s/mnist-train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --mnist "$work/mnist" --mnist-split Training --count 30000 --seed 21 --out "$s/mnist-train"
+[ -s "$s/valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 12 --out "$s/valid"
+[ -s "$s/mnist-valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 22 --out "$s/mnist-valid"
+# One validation manifest for both kinds of line (paths must stay inside the manifest's folder).
+{ echo "# validation: 1,000 font lines (held-out fonts) + 1,000 MNIST digit lines (samples 500-559)"
+  grep -v '^#' "$s/valid/lines.tsv" | sed 's#^#valid/#'
+  grep -v '^#' "$s/mnist-valid/lines.tsv" | sed 's#^#mnist-valid/#'; } > "$s/valid-mixed.tsv"
 
-hl train --train "$work/synth/train/lines.tsv" --valid "$work/synth/valid/lines.tsv" --out "$work/default.hlm" \
-  --line-height 32 --frame-stride 3 --hidden 128 --layers 2 \
-  --seed 1 --threads 2 --batch 32 --epochs 30 --max-minutes "$max_minutes" --resume
-cp "$work/default.hlm" models/default.hlm
+# Stage 1: a new network on the first 60,000 font lines, without augmentation (the code had none then).
+hl train --train "$s/train/lines.tsv" --valid "$s/valid/lines.tsv" --out "$work/default.hlm" \
+  --line-height 32 --frame-stride 3 --hidden 128 --layers 2 --no-augment \
+  --seed 1 --threads 2 --batch 32 --epochs 30 --max-minutes "$stage1_minutes" --resume
+
+# Stage 2: continue on all 230,000 lines with fresh distortions each time a line is seen, validating every
+# 25,000 lines on font and digit lines together.
+hl train --from "$work/default.hlm" --train "$s/train/lines.tsv" "$s/train2/lines.tsv" "$s/mnist-train/lines.tsv" \
+  --valid "$s/valid-mixed.tsv" --out "$work/default2.hlm" --learning-rate 0.0005 --epoch-lines 25000 \
+  --seed 2 --threads 2 --batch 32 --epochs 40 --max-minutes "$stage2_minutes" --resume
+cp "$work/default2.hlm" models/default.hlm

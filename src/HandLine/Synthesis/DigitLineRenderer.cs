@@ -40,7 +40,7 @@ public static class DigitLineRenderer
         var rng = new Random(master.Next());
         var size = (float)d.FontSizePx;
         using var skFont = new SKFont(font.Typeface, size);
-        var cap = skFont.Metrics.CapHeight > 0 ? skFont.Metrics.CapHeight : 0.7f * size;
+        var cap = FigureHeight(skFont, size);
 
         // Layout on a baseline at y = 0 (y grows downwards).
         var placed = new List<(float[] Crop, int Cw, int Ch, float X, float Top, float Scale)>();
@@ -55,7 +55,7 @@ public static class DigitLineRenderer
             if (r.Value is >= '0' and <= '9')
             {
                 var (crop, cw, ch) = Crop(digits.Sample(r.Value - '0', samples[next++], split));
-                // Digits stand on the baseline at the font's capital height, as figures do in most hands.
+                // Digits stand on the baseline as tall as the font's own figures.
                 var s = cap * jitter / ch;
                 var t = -ch * s + dy;
                 placed.Add((crop, cw, ch, x, t, s));
@@ -127,6 +127,23 @@ public static class DigitLineRenderer
         var startX = left + x / 2 + bu * cos;
         var startY = baseY - bu * sin;
         return LineRenderer.Finish(ink, w, h, d, new LineRenderer.Baseline(startX, startY, angle), master);
+    }
+
+    /// <summary>
+    /// How tall the font's own figures are: digits are drawn at that height so they sit with the font's
+    /// separators. Measured from the glyph outlines because some fonts declare nonsense cap heights (0.15 em
+    /// in one of ours, which drew specks instead of digits); kept within 0.45–1 em.
+    /// </summary>
+    private static float FigureHeight(SKFont font, float size)
+    {
+        var heights = new List<float>();
+        for (var c = '0'; c <= '9'; c++)
+        {
+            using var p = font.GetGlyphPath(font.GetGlyph(c));
+            if (p is not null && !p.IsEmpty) heights.Add(p.Bounds.Height);
+        }
+        var h = heights.Count > 0 ? heights.Average() : 0.7f * size;
+        return Math.Clamp(h, 0.45f * size, size);
     }
 
     /// <summary>The sample cut to its ink (values above 0.1), so every digit's height can be set alike.</summary>

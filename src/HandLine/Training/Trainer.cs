@@ -298,8 +298,15 @@ public sealed class Trainer
         var best = double.IsInfinity(s.BestCer) ? "-" : s.BestCer.ToString("P2", CultureInfo.InvariantCulture);
         var line = string.Create(CultureInfo.InvariantCulture,
             $"epoch {s.Epoch + 1}/{o.Epochs} batch {s.Batch}/{batchesPerEpoch} loss {loss:F3} best CER {best} {rate:F1} lines/s ETA {eta:hh\\:mm\\:ss}");
-        if (_interactive) _progress.Write("\r" + line.PadRight(100));
+        if (_interactive) _progress.Write("\r" + Bar(s.Batch / (double)batchesPerEpoch) + " " + line.PadRight(100));
         else if (s.Batch % 200 == 1 || s.Batch == batchesPerEpoch) _progress.WriteLine(line);
+    }
+
+    /// <summary>The epoch's share done as a 20-cell bar.</summary>
+    internal static string Bar(double done)
+    {
+        var cells = (int)Math.Round(Math.Clamp(done, 0, 1) * 20);
+        return "[" + new string('#', cells) + new string('.', 20 - cells) + "]";
     }
 
     private static void AppendLog(string path, TrainingState s, double loss, double cer, int batchesPerEpoch)

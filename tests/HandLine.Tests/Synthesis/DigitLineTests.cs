@@ -69,4 +69,20 @@ public sealed class DigitLineTests : IDisposable
             Assert.True(text.Count(c => c == d) >= 40, $"digit {d} appears {text.Count(c => c == d)} times");
         Assert.True(HandLine.Model.CharacterSet.Default.CanEncode(text));
     }
+
+    [Fact]
+    public void DigitsAreAsTallAsTheFontsOwnFigures()
+    {
+        // Heights come from the glyph outlines, not the font's declared cap height (which some fonts get wrong).
+        static int InkRows(HandLine.Imaging.GrayImage img) =>
+            Enumerable.Range(0, img.Height).Count(y => Enumerable.Range(0, img.Width).Any(x => img[x, y] < 0.5f));
+        var clean = Degradation.Sample(new Random(1), DegradationRanges.None);
+        foreach (var name in new[] { SynthesisFixtures.Comic, SynthesisFixtures.Humor })
+        {
+            var font = SynthesisFixtures.Font(name);
+            var drawn = InkRows(LineRenderer.Render("0", font, clean));
+            var mnist = Enumerable.Range(500, 10).Average(i => InkRows(DigitLineRenderer.Render("0", [i], Digits.Value, MnistSplit.Validation, font, clean)));
+            Assert.InRange(mnist, drawn * 0.8, drawn * 1.25);
+        }
+    }
 }

@@ -110,4 +110,12 @@ public sealed class TrainerTests : IDisposable
         // Consecutive passes are shuffled differently.
         Assert.NotEqual(Trainer.BatchOrder(lines, 8, 1, 0).Select(b => b[0].Id), Trainer.BatchOrder(lines, 8, 1, 1).Select(b => b[0].Id));
     }
+
+    [Theory]
+    [InlineData(0.0, "[....................]")]
+    [InlineData(0.5, "[##########..........]")]
+    [InlineData(1.0, "[####################]")]
+    [InlineData(1.7, "[####################]")]
+    public void TheProgressBarShowsTheEpochShareDone(double done, string expected) =>
+        Assert.Equal(expected, Trainer.Bar(done));
 }
