@@ -153,11 +153,7 @@ public static class LineSynthesiser
                 : "no single font has glyphs for all of the line";
             return null;
         }
-        if (!CharacterSet.Default.CanEncode(text))
-        {
-            reason = "characters outside the model's character set";
-            return null;
-        }
+        // Symbols beyond the default set are drawn too: `train` adds them to a model's character set.
         reason = null;
         return covering[rng.Next(covering.Count)];
     }

@@ -130,4 +130,15 @@ public sealed class LineSynthesiserTests : IDisposable
         Assert.Throws<ArgumentException>(() =>
             LineSynthesiser.Generate(new SynthesisRequest(Catalog, 1, " ", 1), null));
     }
+
+    [Fact]
+    public void SymbolsBeyondTheDefaultSetAreDrawnWhenAFontHasThem()
+    {
+        // '%' is not in the default set; `train` grows a model's set for it, so synthesis must be able to draw it.
+        Assert.False(CharacterSet.Default.Contains("%"));
+        var summary = LineSynthesiser.Generate(new SynthesisRequest(SynthesisFixtures.Catalog, 2, _dir, 3, ["Interest 5% on £40"]), null);
+        Assert.Equal(2, summary.LinesWritten);
+        Assert.Equal(2, summary.SymbolCounts["%"]);
+        Assert.Contains("Interest 5% on £40", File.ReadAllText(summary.ManifestPath));
+    }
 }
