@@ -178,22 +178,10 @@ public static class DigitLineRenderer
             for (var x = x0; x <= x1; x++)
             {
                 var sx = (x + 0.5f - left) / scale - 0.5f;
-                var v = Bilinear(crop, cw, ch, sx, sy);
+                var v = RasterOps.Bilinear(crop, cw, ch, sx, sy);
                 var i = y * w + x;
                 if (v > ink[i]) ink[i] = v;
             }
         }
-    }
-
-    private static float Bilinear(float[] p, int w, int h, float x, float y)
-    {
-        var ix = (int)MathF.Floor(x);
-        var iy = (int)MathF.Floor(y);
-        var tx = x - ix;
-        var ty = y - iy;
-        float At(int cx, int cy) => (uint)cx < (uint)w && (uint)cy < (uint)h ? p[cy * w + cx] : 0;
-        var a = At(ix, iy) + (At(ix + 1, iy) - At(ix, iy)) * tx;
-        var b = At(ix, iy + 1) + (At(ix + 1, iy + 1) - At(ix, iy + 1)) * tx;
-        return a + (b - a) * ty;
     }
 }

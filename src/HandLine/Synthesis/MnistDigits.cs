@@ -91,8 +91,13 @@ public sealed class MnistDigits
     /// <summary>Indices of a split that this copy holds for a digit (all of them with the full package).</summary>
     public IReadOnlyList<int> Available(int digit, MnistSplit split)
     {
+        ArgumentOutOfRangeException.ThrowIfNegative(digit);
+        ArgumentOutOfRangeException.ThrowIfGreaterThan(digit, 9);
+        // The loaded samples are one contiguous run, so the answer is the overlap of two ranges.
         var (start, end) = Range(split);
-        return Enumerable.Range(start, end - start).Where(i => Has(digit, i)).ToArray();
+        var from = Math.Max(start, _first[digit]);
+        var to = Math.Min(end, _first[digit] + _samples[digit].Length / Pixels);
+        return Enumerable.Range(from, Math.Max(0, to - from)).ToArray();
     }
 
     private static (float[] Samples, int First) ReadDigitFile(string path)

@@ -180,30 +180,45 @@ internal static class RasterOps
                 var y0 = (int)MathF.Floor(sy);
                 var tx = sx - x0;
                 var ty = sy - y0;
-                float p00, p10, p01, p11;
                 if (x0 >= 0 && y0 >= 0 && x0 + 1 < w && y0 + 1 < h)
                 {
                     var k = y0 * w + x0;
-                    (p00, p10, p01, p11) = (src[k], src[k + 1], src[k + w], src[k + w + 1]);
+                    var a = src[k] + (src[k + 1] - src[k]) * tx;
+                    var b = src[k + w] + (src[k + w + 1] - src[k + w]) * tx;
+                    dst[i] = a + (b - a) * ty;
                 }
                 else
                 {
-                    (p00, p10) = (At(src, w, h, x0, y0), At(src, w, h, x0 + 1, y0));
-                    (p01, p11) = (At(src, w, h, x0, y0 + 1), At(src, w, h, x0 + 1, y0 + 1));
+                    dst[i] = Bilinear(src, w, h, sx, sy);
                 }
-                var a = p00 + (p10 - p00) * tx;
-                var b = p01 + (p11 - p01) * tx;
-                dst[i] = a + (b - a) * ty;
             }
         }
         return dst;
+    }
+
+    /// <summary>Bilinear sample at (x, y) in pixel-centre coordinates; outside the image is 0.</summary>
+    public static float Bilinear(float[] p, int w, int h, float x, float y)
+    {
+        var x0 = (int)MathF.Floor(x);
+        var y0 = (int)MathF.Floor(y);
+        var tx = x - x0;
+        var ty = y - y0;
+        var a = At(p, w, h, x0, y0) + (At(p, w, h, x0 + 1, y0) - At(p, w, h, x0, y0)) * tx;
+        var b = At(p, w, h, x0, y0 + 1) + (At(p, w, h, x0 + 1, y0 + 1) - At(p, w, h, x0, y0 + 1)) * tx;
+        return a + (b - a) * ty;
     }
 
     private static float At(float[] p, int w, int h, int x, int y) =>
         (uint)x < (uint)w && (uint)y < (uint)h ? p[y * w + x] : 0;
 
     /// <summary>3x3 minimum (grey-level erosion of ink), mixed in by the given share.</summary>
-    public static void Erode(float[] ink, int w, int h, double share)
+    public static void Erode(float[] ink, int w, int h, double share) => Filter3x3(ink, w, h, share, Math.Min);
+
+    /// <summary>3x3 maximum (grey-level dilation of ink), mixed in by the given share.</summary>
+    public static void Dilate(float[] ink, int w, int h, double share) => Filter3x3(ink, w, h, share, Math.Max);
+
+    /// <summary>Rank filter over each 3x3 neighbourhood (outside the image is paper, 0), mixed in by the share.</summary>
+    private static void Filter3x3(float[] ink, int w, int h, double share, Func<float, float, float> pick)
     {
         if (share <= 0)
             return;
@@ -213,11 +228,11 @@ internal static class RasterOps
         {
             for (var x = 0; x < w; x++)
             {
-                var m = float.MaxValue;
+                var k = y * w + x;
+                var m = src[k];
                 for (var j = -1; j <= 1; j++)
                     for (var i = -1; i <= 1; i++)
-                        m = Math.Min(m, At(src, w, h, x + i, y + j));
-                var k = y * w + x;
+                        m = pick(m, At(src, w, h, x + i, y + j));
                 ink[k] += (m - ink[k]) * s;
             }
         }

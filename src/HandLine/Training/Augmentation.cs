@@ -1,4 +1,5 @@
 using HandLine.Imaging;
+using HandLine.Synthesis;
 
 namespace HandLine.Training;
 
@@ -72,35 +73,16 @@ public sealed record Augmentation
                 p[y * outW + x] = a + (b - a) * t;
             }
         }
-        if (stroke < ThickenChance) p = Filter3x3(p, outW, h, Math.Max, 1f);
-        else if (stroke < ThickenChance + ThinChance) p = Filter3x3(p, outW, h, Math.Min, 0.5f);
+        if (stroke < ThickenChance) RasterOps.Dilate(p, outW, h, 1);
+        else if (stroke < ThickenChance + ThinChance) RasterOps.Erode(p, outW, h, 0.5);
         var g = new Random(noiseSeed);
         for (var i = 0; i < p.Length; i++)
         {
             var v = p[i] * (float)gain;
             if (noise > 0)
-                v += (float)(noise * Math.Sqrt(-2 * Math.Log(1 - g.NextDouble())) * Math.Cos(2 * Math.PI * g.NextDouble()));
+                v += (float)(noise * RasterOps.NextGaussian(g));
             p[i] = Math.Clamp(v, 0f, 1f);
         }
         return new GrayImage(outW, h, p);
-    }
-
-    /// <summary>3×3 maximum or minimum, mixed in by <paramref name="share"/> (outside the image is paper).</summary>
-    private static float[] Filter3x3(float[] src, int w, int h, Func<float, float, float> pick, float share)
-    {
-        var dst = new float[src.Length];
-        for (var y = 0; y < h; y++)
-            for (var x = 0; x < w; x++)
-            {
-                var v = src[y * w + x];
-                for (var dy = -1; dy <= 1; dy++)
-                    for (var dx = -1; dx <= 1; dx++)
-                    {
-                        int xx = x + dx, yy = y + dy;
-                        v = pick(v, (uint)xx < (uint)w && (uint)yy < (uint)h ? src[yy * w + xx] : 0f);
-                    }
-                dst[y * w + x] = src[y * w + x] + (v - src[y * w + x]) * share;
-            }
-        return dst;
     }
 }
