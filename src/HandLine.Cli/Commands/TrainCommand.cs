@@ -28,13 +28,14 @@ internal static class TrainCommand
         var height = new Option<int>("--line-height") { DefaultValueFactory = _ => 40, Description = "Normalised line height (new models)" };
         var stride = new Option<int>("--frame-stride") { DefaultValueFactory = _ => 2, Description = "Columns per frame (new models)" };
         var geometric = new Option<bool>("--geometric") { Description = "Add geometric column features (new models)" };
+        var convolution = new Option<bool>("--convolution") { Description = "Two 3x3 convolution layers ahead of the LSTM (new models; pixel columns only)" };
         var noAugment = new Option<bool>("--no-augment") { Description = "Train on the stored lines as they are, without fresh distortions each epoch" };
         var epochLines = new Option<long>("--epoch-lines") { Description = "Lines per epoch, so large sets are validated more often than once a pass (0 = one pass)" };
         var maxLines = new Option<long>("--max-lines") { Description = "Stop after this many training lines in total (a fixed budget for comparisons; 0 = no limit)" };
 
         var command = new Command("train", "Train a model with CTC loss on manifest lines, keeping the best by validation CER")
         {
-            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric, maxLines, noAugment, epochLines,
+            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric, convolution, maxLines, noAugment, epochLines,
         };
         // The work runs on a worker thread so the Ctrl+C handler is in place while it runs: a stop then
         // ends the current batch, saves a checkpoint and leaves a resumable run.
@@ -63,7 +64,7 @@ internal static class TrainCommand
                     ReportGrowth(added);
                     return LineModel.Create(CharacterSet.Default.Append(added),
                         new FeatureConfig(parse.GetValue(height), parse.GetValue(geometric), parse.GetValue(stride)),
-                        new NetworkConfig(parse.GetValue(hidden), parse.GetValue(layers)), options.Seed);
+                        new NetworkConfig(parse.GetValue(hidden), parse.GetValue(layers), Convolution: parse.GetValue(convolution)), options.Seed);
                 }
                 var loaded = ModelFile.Load(fromPath);
                 fromId = loaded.Id;

@@ -31,12 +31,12 @@ public sealed class LineModel : IDisposable
     {
         ArgumentNullException.ThrowIfNull(charset);
         features.Validate();
-        network.Validate();
+        network.Validate(features);
         LineNetwork net;
         lock (TorchRuntime.RandomLock)
         {
             TorchRuntime.Seed(seed);
-            net = new LineNetwork(features.FrameDimension, network, charset.ClassCount);
+            net = new LineNetwork(features, network, charset.ClassCount);
         }
         var header = new ModelHeader(ModelHeader.CurrentFormatVersion, charset.ToString(), features, network,
             Training: null, ValidationCer: null, CreatedUtc: DateTime.UtcNow.ToString("O"));
@@ -58,7 +58,7 @@ public sealed class LineModel : IDisposable
         lock (TorchRuntime.RandomLock)
         {
             TorchRuntime.Seed(seed);
-            grown = new LineNetwork(Features.FrameDimension, Header.Network, charset.ClassCount);
+            grown = new LineNetwork(Features, Header.Network, charset.ClassCount);
         }
         // New rows: a tenth of the usual random initialisation and a bias equal to the lowest old bias, so a new
         // symbol starts with the weakest prior of any known symbol and almost no say from the input. The old

@@ -1,3 +1,4 @@
+using HandLine.Features;
 using TorchSharp;
 using TorchSharp.Modules;
 using static TorchSharp.torch;
@@ -5,18 +6,26 @@ using static TorchSharp.torch;
 namespace HandLine.Model;
 
 /// <summary>
-/// Bidirectional LSTM over column frames, then a linear layer and log-softmax over the character set
-/// plus the CTC blank (class 0). Input [T, B, D] with per-item lengths; output log-probabilities [T, B, C].
+/// Bidirectional LSTM over column frames (optionally after a <see cref="ColumnConvolution"/> front end), then a
+/// linear layer and log-softmax over the character set plus the CTC blank (class 0). Input [T, B, D] with
+/// per-item lengths; output log-probabilities [T, B, C].
 /// </summary>
 public sealed class LineNetwork : nn.Module<Tensor, Tensor, Tensor>
 {
+    private readonly ColumnConvolution? front;
     private readonly LSTM lstm;
     private readonly Dropout dropout;
     private readonly Linear output;
 
-    public LineNetwork(int inputSize, NetworkConfig config, int classCount) : base(nameof(LineNetwork))
+    public LineNetwork(FeatureConfig features, NetworkConfig config, int classCount) : base(nameof(LineNetwork))
     {
-        config.Validate();
+        config.Validate(features);
+        var inputSize = features.FrameDimension;
+        if (config.Convolution)
+        {
+            front = new ColumnConvolution(features.LineHeight, features.FrameStride);
+            inputSize = ColumnConvolution.OutputSize(features.LineHeight);
+        }
         lstm = nn.LSTM(inputSize, config.Hidden, numLayers: config.Layers, bidirectional: true,
             dropout: config.Layers > 1 ? config.Dropout : 0);
         dropout = nn.Dropout(config.Dropout);
@@ -29,7 +38,8 @@ public sealed class LineNetwork : nn.Module<Tensor, Tensor, Tensor>
     public override Tensor forward(Tensor frames, Tensor lengths)
     {
         // Packing keeps padding out of the backward direction, so a line reads the same alone or in a batch.
-        using var packed = nn.utils.rnn.pack_padded_sequence(frames, lengths, batch_first: false, enforce_sorted: false);
+        using var convolved = front?.call(frames, lengths);
+        using var packed = nn.utils.rnn.pack_padded_sequence(convolved ?? frames, lengths, batch_first: false, enforce_sorted: false);
         var (outPacked, h, c) = lstm.call(packed);
         using (outPacked) using (h) using (c)
         {

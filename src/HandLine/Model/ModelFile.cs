@@ -108,7 +108,7 @@ public static class ModelFile
         try
         {
             header.Features.Validate();
-            header.Network.Validate();
+            header.Network.Validate(header.Features);
             charset = CharacterSet.FromString(header.Charset);
         }
         catch (ArgumentException e)
@@ -116,7 +116,7 @@ public static class ModelFile
             throw new InputException(nameForErrors, "model", $"model header is inconsistent: {e.Message}", e);
         }
 
-        var network = new LineNetwork(header.Features.FrameDimension, header.Network, charset.ClassCount);
+        var network = new LineNetwork(header.Features, header.Network, charset.ClassCount);
         try
         {
             using var ms = new MemoryStream(weights.ToArray());

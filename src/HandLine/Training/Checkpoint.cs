@@ -7,9 +7,11 @@ using TorchSharp.Modules;
 namespace HandLine.Training;
 
 /// <summary>
-/// Where a run stands, so an interrupted run can continue exactly where it stopped. <see cref="BestCer"/> is the
-/// best epoch-end CER and drives the schedule; <see cref="SavedCer"/> is the CER of the model file at the output
-/// path, which may also come from a validation made when a run stopped mid-epoch (null: none yet).
+/// Where a run stands, so an interrupted run can continue exactly where it stopped. <see cref="BestCer"/> and
+/// <see cref="BestLoss"/> are the best epoch-end validation CER and CTC loss, which drive the schedule;
+/// <see cref="EpochsSinceBest"/> counts epochs that improved neither. <see cref="SavedCer"/> is the CER of the
+/// model file at the output path, which may also come from a validation made when a run stopped mid-epoch
+/// (null: none yet).
 /// </summary>
 public sealed record TrainingState(
     [property: JsonPropertyName("epoch")] int Epoch,
@@ -21,7 +23,8 @@ public sealed record TrainingState(
     [property: JsonPropertyName("best_cer")] double BestCer,
     [property: JsonPropertyName("epochs_since_best")] int EpochsSinceBest,
     [property: JsonPropertyName("epoch_loss_sum")] double EpochLossSum,
-    [property: JsonPropertyName("saved_cer")] double? SavedCer)
+    [property: JsonPropertyName("saved_cer")] double? SavedCer,
+    [property: JsonPropertyName("best_loss")] double? BestLoss = null)
 {
     /// <summary>CER of the saved model; checkpoints from before this field saved only at epoch ends.</summary>
     [JsonIgnore]

@@ -120,34 +120,48 @@ public sealed class Trainer
             }
 
             var cer = Validate(model, valid);
+            var validLoss = MeanLoss(model, valid);
             var meanLoss = state.EpochLossSum / Math.Max(1, batches.Count);
-            var improved = cer < state.BestCer;
             var beatsSaved = cer < state.SavedOrBestCer; // before the state update below
-            var sinceBest = improved ? 0 : state.EpochsSinceBest + 1;
+            state = AfterEpoch(state, cer, validLoss, options) with { EpochLossSum = 0, Minutes = Minutes() };
             var lr = state.LearningRate;
-            if (!improved && sinceBest % options.PlateauEpochs == 0) lr /= 2;
-            state = state with
-            {
-                Epoch = state.Epoch + 1, Batch = 0, EpochLossSum = 0, BestCer = Math.Min(cer, state.BestCer),
-                EpochsSinceBest = sinceBest, LearningRate = lr, Minutes = Minutes(),
-            };
             SetLearningRate(optimizer, lr);
-            AppendLog(logPath, state, meanLoss, cer, batchesPerEpoch);
+            AppendLog(logPath, state, meanLoss, cer, validLoss, batchesPerEpoch);
             _progress.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"epoch {state.Epoch}/{options.Epochs}: mean loss {meanLoss:F3}, validation CER {cer:P2}{(beatsSaved ? " (saved)" : "")}, step size {lr:G3}"));
+                $"epoch {state.Epoch}/{options.Epochs}: mean loss {meanLoss:F3}, validation CER {cer:P2} loss {validLoss:F3}{(beatsSaved ? " (saved)" : "")}, step size {lr:G3}"));
             if (beatsSaved)
             {
                 bestId = model.Save(outPath, RecipeAt(recipe, state), Math.Round(cer, 5));
                 state = state with { SavedCer = cer };
             }
             Checkpoint.Save(checkpointPath, state, network, optimizer);
-            if (sinceBest >= options.Patience)
+            if (state.EpochsSinceBest >= options.Patience)
             {
-                _progress.WriteLine($"no better validation CER for {sinceBest} epochs: stopping early");
+                _progress.WriteLine($"no better validation CER or loss for {state.EpochsSinceBest} epochs: stopping early");
                 break;
             }
         }
         return new TrainingResult(state.BestCer, state.Epoch, state.LinesSeen, state.Minutes, stopped, bestId);
+    }
+
+    /// <summary>
+    /// The schedule at an epoch's end. Progress is a better validation CER or a lower validation CTC loss: early
+    /// on, CTC first learns to output blanks everywhere and the CER sits at 100 % for thousands of lines while
+    /// the loss falls, and halving the step size or stopping then would only prolong that phase. After
+    /// <see cref="TrainingOptions.PlateauEpochs"/> epochs without progress the step size halves; the caller stops
+    /// after <see cref="TrainingOptions.Patience"/>.
+    /// </summary>
+    internal static TrainingState AfterEpoch(TrainingState state, double cer, double validLoss, TrainingOptions options)
+    {
+        var progress = cer < state.BestCer || validLoss < (state.BestLoss ?? double.PositiveInfinity);
+        var sinceBest = progress ? 0 : state.EpochsSinceBest + 1;
+        var lr = !progress && sinceBest % options.PlateauEpochs == 0 ? state.LearningRate / 2 : state.LearningRate;
+        return state with
+        {
+            Epoch = state.Epoch + 1, Batch = 0, BestCer = Math.Min(cer, state.BestCer),
+            BestLoss = Math.Min(validLoss, state.BestLoss ?? double.PositiveInfinity),
+            EpochsSinceBest = sinceBest, LearningRate = lr,
+        };
     }
 
     private static TrainingRecord RecipeAt(TrainingRecord recipe, TrainingState s) =>
@@ -309,12 +323,12 @@ public sealed class Trainer
         return "[" + new string('#', cells) + new string('.', 20 - cells) + "]";
     }
 
-    private static void AppendLog(string path, TrainingState s, double loss, double cer, int batchesPerEpoch)
+    private static void AppendLog(string path, TrainingState s, double loss, double cer, double validLoss, int batchesPerEpoch)
     {
         var header = !File.Exists(path);
         using var w = new StreamWriter(path, append: true);
-        if (header) w.WriteLine("epoch,lines_seen,minutes,mean_loss,valid_cer,learning_rate,batches_per_epoch");
+        if (header) w.WriteLine("epoch,lines_seen,minutes,mean_loss,valid_cer,learning_rate,batches_per_epoch,valid_loss");
         w.WriteLine(string.Create(CultureInfo.InvariantCulture,
-            $"{s.Epoch},{s.LinesSeen},{s.Minutes:F2},{loss:F4},{cer:F5},{s.LearningRate:G4},{batchesPerEpoch}"));
+            $"{s.Epoch},{s.LinesSeen},{s.Minutes:F2},{loss:F4},{cer:F5},{s.LearningRate:G4},{batchesPerEpoch},{validLoss:F4}"));
     }
 }

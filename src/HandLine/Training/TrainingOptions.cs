@@ -20,10 +20,10 @@ public sealed record TrainingOptions
     /// <summary>Gradient norm clip; LSTMs trained with CTC are prone to exploding gradients (common practice, no source).</summary>
     public double ClipNorm { get; init; } = 5;
 
-    /// <summary>Halve the step size after this many epochs without a better validation CER.</summary>
+    /// <summary>Halve the step size after this many epochs without a better validation CER or loss.</summary>
     public int PlateauEpochs { get; init; } = 2;
 
-    /// <summary>Stop after this many epochs without a better validation CER.</summary>
+    /// <summary>Stop after this many epochs without a better validation CER or loss.</summary>
     public int Patience { get; init; } = 6;
 
     /// <summary>Continue from the checkpoint beside the output model, if there is one.</summary>

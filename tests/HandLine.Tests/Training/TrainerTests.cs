@@ -118,4 +118,38 @@ public sealed class TrainerTests : IDisposable
     [InlineData(1.7, "[####################]")]
     public void TheProgressBarShowsTheEpochShareDone(double done, string expected) =>
         Assert.Equal(expected, Trainer.Bar(done));
+
+    [Fact]
+    public void TheStepSizeHoldsWhileTheLossFallsInTheAllBlankPhase()
+    {
+        // CTC first outputs blanks everywhere: the CER stays at 100 % while the validation loss falls. That is
+        // progress; only epochs that improve neither CER nor loss halve the step size and count towards stopping.
+        var options = new TrainingOptions { PlateauEpochs = 2, Patience = 4 };
+        var s = new TrainingState(0, 0, 0, 0, 0, 0.001, double.PositiveInfinity, 0, 0, null);
+        foreach (var loss in new[] { 4.6, 3.7, 3.6, 3.5, 3.4 })
+            s = Trainer.AfterEpoch(s, 1.0, loss, options);
+        Assert.Equal(0.001, s.LearningRate);
+        Assert.Equal(0, s.EpochsSinceBest);
+        Assert.Equal(3.4, s.BestLoss);
+
+        s = Trainer.AfterEpoch(s, 1.0, 3.45, options); // neither better: one epoch without progress
+        Assert.Equal((1, 0.001), (s.EpochsSinceBest, s.LearningRate));
+        s = Trainer.AfterEpoch(s, 1.0, 3.41, options); // the second halves the step size
+        Assert.Equal((2, 0.0005), (s.EpochsSinceBest, s.LearningRate));
+        s = Trainer.AfterEpoch(s, 0.9, 3.5, options); // a better CER alone is progress again
+        Assert.Equal((0, 0.0005, 0.9), (s.EpochsSinceBest, s.LearningRate, s.BestCer));
+    }
+
+    [Fact]
+    public void ACheckpointFromBeforeTheLossWasKeptResumesWithNoBestLoss()
+    {
+        // Older checkpoints have no best_loss: the first validation after resuming sets it.
+        var old = new TrainingState(3, 0, 100, 10, 1, 0.0005, 0.2, 1, 0, 0.2);
+        var json = System.Text.Json.JsonSerializer.Serialize(old).Replace(",\"best_loss\":null", "");
+        Assert.DoesNotContain("best_loss", json);
+        var back = System.Text.Json.JsonSerializer.Deserialize<TrainingState>(json)!;
+        Assert.Null(back.BestLoss);
+        var next = Trainer.AfterEpoch(back, 0.25, 2.0, new TrainingOptions());
+        Assert.Equal((0, 2.0), (next.EpochsSinceBest, next.BestLoss));
+    }
 }
