@@ -31,11 +31,12 @@ internal static class TrainCommand
         var convolution = new Option<bool>("--convolution") { Description = "Two 3x3 convolution layers ahead of the LSTM (new models; pixel columns only)" };
         var noAugment = new Option<bool>("--no-augment") { Description = "Train on the stored lines as they are, without fresh distortions each epoch" };
         var epochLines = new Option<long>("--epoch-lines") { Description = "Lines per epoch, so large sets are validated more often than once a pass (0 = one pass)" };
+        var keepPrepared = new Option<bool>("--keep-prepared") { Description = "Keep each manifest's prepared lines beside it (MANIFEST.prepared) and reuse them while nothing has changed" };
         var maxLines = new Option<long>("--max-lines") { Description = "Stop after this many training lines in total (a fixed budget for comparisons; 0 = no limit)" };
 
         var command = new Command("train", "Train a model with CTC loss on manifest lines, keeping the best by validation CER")
         {
-            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric, convolution, maxLines, noAugment, epochLines,
+            train, valid, outPath, from, epochs, maxMinutes, batch, seed, threads, resume, lr, hidden, layers, height, stride, geometric, convolution, maxLines, keepPrepared, noAugment, epochLines,
         };
         // The work runs on a worker thread so the Ctrl+C handler is in place while it runs: a stop then
         // ends the current batch, saves a checkpoint and leaves a resumable run.
@@ -77,8 +78,9 @@ internal static class TrainCommand
 
             var limits = new ImagingOptions();
             var clock = System.Diagnostics.Stopwatch.StartNew();
-            var (trainSet, trainErrors) = TrainingData.Load(parse.GetValue(train)!, model.Features, model.Charset, limits, options.Threads);
-            var (validSet, validErrors) = TrainingData.Load([parse.GetValue(valid)!], model.Features, model.Charset, limits, options.Threads);
+            var keep = parse.GetValue(keepPrepared);
+            var (trainSet, trainErrors) = TrainingData.Load(parse.GetValue(train)!, model.Features, model.Charset, limits, options.Threads, keep, Console.Error.WriteLine);
+            var (validSet, validErrors) = TrainingData.Load([parse.GetValue(valid)!], model.Features, model.Charset, limits, options.Threads, keep, Console.Error.WriteLine);
             foreach (var e in trainErrors.Concat(validErrors).Take(20)) Console.Error.WriteLine($"skipped: {e.Message}");
             if (trainErrors.Count + validErrors.Count > 20) Console.Error.WriteLine($"... {trainErrors.Count + validErrors.Count - 20} more skipped");
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,

@@ -26,9 +26,28 @@ public sealed class LineSample
         Target = target;
         Config = features;
         Width = ink.Width;
-        _ink = new byte[ink.Pixels.Length];
-        for (var i = 0; i < _ink.Length; i++)
-            _ink[i] = (byte)Math.Round(Math.Clamp(ink.Pixels[i], 0f, 1f) * 255f);
+        _ink = ToBytes(ink.Pixels);
+    }
+
+    /// <summary>A line from ink already stored at 8 bits (prepared lines read back from a file).</summary>
+    internal LineSample(string id, string text, byte[] ink, int width, FeatureConfig features, int[] target)
+    {
+        if (width < 1 || ink.Length != width * features.LineHeight)
+            throw new ArgumentException($"{ink.Length} ink values do not make a {width} x {features.LineHeight} line.", nameof(ink));
+        Id = id;
+        Text = text;
+        Target = target;
+        Config = features;
+        Width = width;
+        _ink = ink;
+    }
+
+    internal static byte[] ToBytes(float[] pixels)
+    {
+        var bytes = new byte[pixels.Length];
+        for (var i = 0; i < bytes.Length; i++)
+            bytes[i] = (byte)Math.Round(Math.Clamp(pixels[i], 0f, 1f) * 255f);
+        return bytes;
     }
 
     public string Id { get; }
