@@ -16,7 +16,7 @@ dotnet build src/HandLine.Cli -c Release -v q
 mkdir -p "$out"
 run() { name=$1; shift; dotnet run --project src/HandLine.Cli -c Release --no-build -- train --train "$s/train/compare$n.tsv" \
   --valid "$s/valid/compare500.tsv" --out "$out/$name.hlm" --seed 1 --threads 1 --batch 32 --epochs 5 \
-  --max-lines "$budget" --no-augment --resume "$@" > "$out/$name.log" 2>&1; }
+  --max-lines "$budget" --no-augment --resume --keep-prepared "$@" > "$out/$name.log" 2>&1; }
 run A-pix-h128x2 --line-height 32 --frame-stride 3 --hidden 128 --layers 2 &
 run B-geo-h128x2 --line-height 32 --frame-stride 3 --hidden 128 --layers 2 --geometric &
 run C-pix-h192x2 --line-height 32 --frame-stride 3 --hidden 192 --layers 2 &

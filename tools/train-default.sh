@@ -47,5 +47,5 @@ hl train --train "$s/train/lines.tsv" --valid "$s/valid/lines.tsv" --out "$work/
 # 25,000 lines on font and digit lines together.
 hl train --from "$work/default.hlm" --train "$s/train/lines.tsv" "$s/train2/lines.tsv" "$s/mnist-train/lines.tsv" \
   --valid "$s/valid-mixed.tsv" --out "$work/default2.hlm" --learning-rate 0.0005 --epoch-lines 25000 \
-  --seed 2 --threads 2 --batch 32 --epochs 40 --max-minutes "$stage2_minutes" --resume
+  --seed 2 --threads 2 --batch 32 --epochs 40 --max-minutes "$stage2_minutes" --resume --keep-prepared
 cp "$work/default2.hlm" models/default.hlm

@@ -129,7 +129,7 @@ public static class PreparedLines
 
     private static void Write(string path, string key, int height, IReadOnlyList<Line> lines)
     {
-        var temp = path + ".tmp";
+        var temp = $"{path}.{Environment.ProcessId}.tmp"; // runs started together may all write it
         using (var writer = new BinaryWriter(new BufferedStream(File.Create(temp), 1 << 20)))
         {
             writer.Write(Magic);

@@ -151,9 +151,13 @@ public sealed class Trainer
     /// <see cref="TrainingOptions.PlateauEpochs"/> epochs without progress the step size halves; the caller stops
     /// after <see cref="TrainingOptions.Patience"/>.
     /// </summary>
+    internal const double LossProgress = 0.005;
+
     internal static TrainingState AfterEpoch(TrainingState state, double cer, double validLoss, TrainingOptions options)
     {
-        var progress = cer < state.BestCer || validLoss < (state.BestLoss ?? double.PositiveInfinity);
+        // A loss has to fall by 0.5 % to count, so a long tail of tiny gains cannot hold the step size forever
+        // (a relative threshold as plateau schedules commonly use: common practice, no source).
+        var progress = cer < state.BestCer || validLoss < (state.BestLoss ?? double.PositiveInfinity) * (1 - LossProgress);
         var sinceBest = progress ? 0 : state.EpochsSinceBest + 1;
         var lr = !progress && sinceBest % options.PlateauEpochs == 0 ? state.LearningRate / 2 : state.LearningRate;
         return state with
