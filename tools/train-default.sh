@@ -35,6 +35,10 @@ s=$work/synth
 [ -s "$s/mnist-train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --mnist "$work/mnist" --mnist-split Training --count 30000 --seed 21 --out "$s/mnist-train"
 [ -s "$s/valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 12 --out "$s/valid"
 [ -s "$s/mnist-valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 22 --out "$s/mnist-valid"
+# Test sets for the card (tools/measure-default.sh): fresh lines from the same held-out fonts and digit samples,
+# never used to choose a model.
+[ -s "$s/test-fonts/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 14 --out "$s/test-fonts"
+[ -s "$s/test-mnist/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 23 --out "$s/test-mnist"
 # One validation manifest for both kinds of line (paths must stay inside the manifest's folder).
 { echo "# validation: 1,000 font lines (held-out fonts) + 1,000 MNIST digit lines (samples 500-559)"
   grep -v '^#' "$s/valid/lines.tsv" | sed 's#^#valid/#'
