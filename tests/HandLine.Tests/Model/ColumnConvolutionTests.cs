@@ -1,7 +1,5 @@
 using HandLine.Features;
 using HandLine.Model;
-using HandLine.Tests.Training;
-using HandLine.Training;
 using static TorchSharp.torch;
 
 namespace HandLine.Tests.Model;
@@ -71,19 +69,5 @@ public sealed class ColumnConvolutionTests : IDisposable
     {
         var e = Assert.Throws<ArgumentException>(() => ConvModel(Pixels with { Geometric = true }));
         Assert.Contains("pixel columns only", e.Message);
-    }
-
-    [Fact]
-    public void AFewStepsLowerTheCtcLoss()
-    {
-        var lines = TrainerTests.PatternLines(64, 1);
-        using var model = LineModel.Create(CharacterSet.FromString("ab"), lines[0].Config,
-            new NetworkConfig(12, 1, 0, Convolution: true), seed: 9);
-        var before = Trainer.MeanLoss(model, lines);
-        new Trainer(TextWriter.Null).Train(model, lines, lines.Take(8).ToList(), Path.Combine(_dir, "m.hlm"),
-            new TrainingOptions { Epochs = 3, BatchSize = 8, LearningRate = 0.01, Seed = 4, Threads = 1 },
-            new TrainingRecord("test", [], null, 4, 0, 0, 0, null));
-        var after = Trainer.MeanLoss(model, lines);
-        Assert.True(after < before * 0.7, $"loss {before:F3} -> {after:F3}");
     }
 }

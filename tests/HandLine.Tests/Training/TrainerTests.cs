@@ -40,13 +40,15 @@ public sealed class TrainerTests : IDisposable
 
     private static readonly FeatureConfig Config = new(LineHeight: 8, FrameStride: 1);
 
-    private static LineModel Model() =>
-        LineModel.Create(CharacterSet.FromString("ab"), Config, new NetworkConfig(12, 1, 0), seed: 9);
+    private static LineModel Model(bool convolution = false) =>
+        LineModel.Create(CharacterSet.FromString("ab"), Config, new NetworkConfig(12, 1, 0, convolution), seed: 9);
 
-    [Fact]
-    public void AFewStepsOnSixtyFourLinesLowerTheCtcLoss()
+    [Theory]
+    [InlineData(false)]
+    [InlineData(true)] // with the convolutional front end
+    public void AFewStepsOnSixtyFourLinesLowerTheCtcLoss(bool convolution)
     {
-        using var model = Model();
+        using var model = Model(convolution);
         var lines = PatternLines(64, 1);
         var before = Trainer.MeanLoss(model, lines);
         new Trainer(TextWriter.Null).Train(model, lines, lines.Take(8).ToList(), Path.Combine(_dir, "m.hlm"),
