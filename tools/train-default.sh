@@ -51,16 +51,15 @@ hl train --train "$s/train/lines.tsv" --valid "$s/valid/lines.tsv" --out "$work/
   --line-height 32 --frame-stride 3 --hidden 128 --layers 2 --no-augment \
   --seed 1 --threads 2 --batch 32 --epochs 30 --max-minutes "$stage1_minutes" --resume
 
-# Stage 2: continue on all 230,000 lines with fresh distortions each time a line is seen, validating every
-# 25,000 lines on font and digit lines together.
-hl train --from "$work/default.hlm" --train "$s/train/lines.tsv" "$s/train2/lines.tsv" "$s/mnist-train/lines.tsv" \
-  --valid "$s/valid-mixed.tsv" --out "$work/default2.hlm" --learning-rate 0.0005 --epoch-lines 25000 \
-  --seed 2 --threads 2 --batch 32 --epochs 40 --max-minutes "$stage2_minutes" --resume --keep-prepared
-
-# Stage 3: the same lines at half the step size (stage 2's validation CER was still falling when it stopped, and
-# a smaller step at the end of a limited budget usually gains more than the same time at the old one: common
-# practice, no source).
-hl train --from "$work/default2.hlm" --train "$s/train/lines.tsv" "$s/train2/lines.tsv" "$s/mnist-train/lines.tsv" \
-  --valid "$s/valid-mixed.tsv" --out "$work/default3.hlm" --learning-rate 0.00025 --epoch-lines 25000 \
-  --seed 3 --threads 2 --batch 32 --epochs 40 --max-minutes "$stage3_minutes" --resume --keep-prepared
+# Stages 2 and 3 continue from the stage before on all 230,000 lines, with fresh distortions each time a line is
+# seen, validating every 25,000 lines on font and digit lines together.
+continue_on_all() { # FROM OUT STEP_SIZE SEED MINUTES
+  hl train --from "$1" --train "$s/train/lines.tsv" "$s/train2/lines.tsv" "$s/mnist-train/lines.tsv" \
+    --valid "$s/valid-mixed.tsv" --out "$2" --learning-rate "$3" --epoch-lines 25000 \
+    --seed "$4" --threads 2 --batch 32 --epochs 40 --max-minutes "$5" --resume --keep-prepared
+}
+continue_on_all "$work/default.hlm" "$work/default2.hlm" 0.0005 2 "$stage2_minutes"
+# Stage 3: half the step size (stage 2's validation CER was still falling when it stopped, and a smaller step at
+# the end of a limited budget usually gains more than the same time at the old one: common practice, no source).
+continue_on_all "$work/default2.hlm" "$work/default3.hlm" 0.00025 3 "$stage3_minutes"
 cp "$work/default3.hlm" models/default.hlm
