@@ -61,8 +61,14 @@ public sealed record ImagingOptions
     /// <summary>Angle searches run on a box-downscaled copy of at most about this many pixels.</summary>
     public int EstimationPixels { get; init; } = 50_000;
 
-    /// <summary>Line finder: a row holds text when its ink exceeds this fraction of the fullest row.</summary>
+    /// <summary>Line finder: a row holds text when its ink, above the quietest rows' level, exceeds this
+    /// fraction of the fullest row's.</summary>
     public double LineRowFraction { get; init; } = 0.03;
+
+    /// <summary>Line finder: a run of text rows is a line only if one of its rows stands out from the paper noise
+    /// by six noise deviations or by this fraction of the fullest row's ink, whichever is less; fainter runs are
+    /// noise, ruling or show-through.</summary>
+    public double LineSeedFraction { get; init; } = 0.15;
 
     /// <summary>Line finder: gaps shorter than this fraction of the median line height are closed.</summary>
     public double LineGapFraction { get; init; } = 0.25;
@@ -88,6 +94,7 @@ public sealed record ImagingOptions
         Check(MaxLineWidth >= LineHeight, nameof(MaxLineWidth), "must be at least LineHeight");
         Check(EstimationPixels >= 10_000, nameof(EstimationPixels), "must be at least 10000");
         Check(LineRowFraction is > 0 and < 1, nameof(LineRowFraction), "must be between 0 and 1");
+        Check(LineSeedFraction >= LineRowFraction && LineSeedFraction < 1, nameof(LineSeedFraction), "must be at least LineRowFraction and below 1");
         Check(LineGapFraction is >= 0 and < 2, nameof(LineGapFraction), "must be in [0, 2)");
     }
 

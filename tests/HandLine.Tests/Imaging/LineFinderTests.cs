@@ -84,6 +84,27 @@ public sealed class LineFinderTests
         Assert.Single(regions);
     }
 
+    [Theory]
+    [InlineData("noisy-register-line.png")]
+    [InlineData("noisy-ledger-line.png")]
+    [InlineData("noisy-digit-line.png")]
+    public void Noisy_line_gives_exactly_one_region(string file)
+    {
+        // Blurred, JPEG-compressed paper noise, show-through, uneven light or ruling (fixtures/imaging/README.md):
+        // rows of noise alone used to cross the threshold and come out as extra "lines" of junk text.
+        var image = ImageLoader.Load(Path.Combine(RepoRoot(), "fixtures", "imaging", file), Defaults);
+        Assert.Single(LineFinder.Split(image, Defaults));
+    }
+
+    [Fact]
+    public void Short_line_under_long_ones_is_kept()
+    {
+        // A closing word is a line however little ink it has beside full lines.
+        var lines = new[] { Render(Entries[1], padding: 6), Render(Entries[2], padding: 6), Render("Amen.", padding: 6) };
+        var regions = LineFinder.Split(Stack(lines, 14), Defaults);
+        Assert.Equal(3, regions.Count);
+    }
+
     [Fact]
     public void Blank_page_gives_no_regions()
     {
