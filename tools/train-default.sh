@@ -4,10 +4,11 @@
 # resumes from its checkpoint). Usage: tools/train-default.sh [STAGE1_MINUTES] [STAGE2_MINUTES] [STAGE3_MINUTES] [STAGE4_MINUTES]
 # A stage's minutes are its total training time over all its sessions (preparing the lines not counted): the
 # committed model's stage 2 ran 75 minutes in one session and was resumed with 185 in the next; its stage 3 was
-# stopped after 5 epochs (79 minutes).
-# START_AT=N runs stages N onward only, taking the committed models/default.hlm as stage N-1's result (it is the
-# last stage's result in every commit): .cache does not survive a fresh checkout, and without this a new session
-# would retrain hours of earlier stages. The fifth session ran START_AT=4.
+# stopped after 5 epochs (79 minutes), its stage 4 likewise (the state after 77 minutes).
+# START_AT=N skips stages 1 to N-1 and copies the committed models/default.hlm in as stage N-1's result: .cache
+# does not survive a fresh checkout, and without this a new session would retrain hours of earlier stages. That
+# file is the last stage's result, so this suits a stage added after it (the fifth session ran START_AT=4 at the
+# commit whose file was stage 3's); to redo an earlier stage, check out the commit that holds its predecessor.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 stage1_minutes="${1:-105}"
