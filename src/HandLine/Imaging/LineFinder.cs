@@ -4,7 +4,8 @@ namespace HandLine.Imaging;
 /// Splits a page (or a strip) of several text lines into line images from the horizontal
 /// projection profile of the deskewed ink. Limits: one column of text lines, roughly parallel,
 /// separated by at least a little clear space (touching descenders/ascenders merge the two lines);
-/// no column layouts, tables or marginal notes; every crop spans the full page width.
+/// no column layouts, tables or marginal notes; every crop spans the full page width; a line of one narrow
+/// mark (a lone "1") beside full lines has too little ink to count.
 /// </summary>
 public static class LineFinder
 {
