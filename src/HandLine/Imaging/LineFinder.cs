@@ -77,15 +77,15 @@ public static class LineFinder
         // measured up from the quietest rows' level; and hysteresis (Canny 1986, "A Computational Approach to
         // Edge Detection", IEEE PAMI 8(6)): a band is a run of rows above the low threshold that reaches the
         // high one somewhere, so writing keeps its faint ascender and descender rows and noise makes no band.
-        // The high threshold stands NoiseDeviations above the quiet rows' spread, capped at LineSeedFraction of
-        // the fullest row, so on clean paper a short line (a total, "Amen") is kept however long the others are.
+        // The high threshold stands NoiseDeviations of the quiet rows' standard deviations above their level,
+        // capped at LineSeedFraction of the fullest row, so on clean paper (no deviation) a short line (a total,
+        // "Amen") is kept however long the others are.
         profile = Smooth(profile, SmoothingRows);
-        double floor = Quantile(profile, FloorQuantile);
-        double range = profile.Max() - floor;
+        var sorted = profile.Order().ToArray();
+        double floor = Quantile(sorted, FloorQuantile);
+        double range = sorted[^1] - floor;
         double low = floor + options.LineRowFraction * range;
-        // Standard deviation from two quantiles of the quiet rows, assuming normal noise: the 10th and 30th
-        // percentiles lie 1.28 and 0.52 deviations below the mean (standard normal table).
-        double deviation = (Quantile(profile, 0.3) - floor) / (1.2816 - 0.5244);
+        double deviation = (Quantile(sorted, SpreadQuantile) - floor) / (FloorDeviations - SpreadDeviations);
         double high = Math.Max(low, floor + Math.Min(options.LineSeedFraction * range, NoiseDeviations * deviation));
         var bands = new List<(int Top, int Bottom)>();
         for (int y = 0; y < profile.Length; y++)
@@ -135,6 +135,10 @@ public static class LineFinder
     private const int SmoothingRows = 5;
     private const double FloorQuantile = 0.1;
 
+    // The quiet rows' standard deviation comes from two quantiles, assuming normal noise: the 10th and 30th
+    // percentiles lie 1.2816 and 0.5244 deviations below the mean (standard normal table).
+    private const double SpreadQuantile = 0.3, FloorDeviations = 1.2816, SpreadDeviations = 0.5244;
+
     // Common practice, no source: well beyond chance for noise over a page's few hundred quiet rows.
     private const double NoiseDeviations = 6;
 
@@ -152,11 +156,7 @@ public static class LineFinder
         return smooth;
     }
 
-    private static double Quantile(double[] values, double q)
-    {
-        var sorted = values.Order().ToArray();
-        return sorted[(int)(q * (sorted.Length - 1))];
-    }
+    private static double Quantile(double[] sorted, double q) => sorted[(int)(q * (sorted.Length - 1))];
 
     private static double Median(List<(int Top, int Bottom)> bands)
     {
