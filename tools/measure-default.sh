@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # The figures in models/README.md's "Measured" table, for a model (default: models/default.hlm): CER and WER with
 # the default decoder (beam 8) and greedy on the held-out sets, the test's 50 MNIST lines, and the demo.
-# Needs the sets made by tools/train-default.sh. Usage: tools/measure-default.sh [MODEL] [OUT]
+# Needs the sets made by tools/make-sets.sh. Usage: tools/measure-default.sh [MODEL] [OUT]
 set -euo pipefail
 cd "$(dirname "$0")/.."
 model="${1:-models/default.hlm}"

@@ -21,40 +21,16 @@ stage_out() { if (( $1 == 1 )); then echo "$work/default.hlm"; else echo "$work/
 runs() { (( first <= $1 )); } # STAGE: whether this run includes it
 hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 
-bash tools/fetch-fonts.sh "$work/fonts"
-bash tools/fetch-mnist.sh "$work/mnist"
-dotnet build src/HandLine.Cli -c Release -v q
+bash tools/make-sets.sh # fonts, digits, the validation and test sets
 
-# Styles kept out of training: validation CER is measured on hands the model never saw.
-valid_fonts=(kalam patrick-hand shadows-into-light courgette Rufscript010)
-rm -rf "$work/fonts/train" "$work/fonts/valid"
-mkdir -p "$work/fonts/train" "$work/fonts/valid"
-for f in "$work"/fonts/debian/* "$work"/fonts/npm/*; do
-  name=$(basename "$f")
-  dest=train
-  for v in "${valid_fonts[@]}"; do [[ "$name" == "$v"* ]] && dest=valid; done
-  ln -s "$(realpath "$f")" "$work/fonts/$dest/$name"
-done
-echo "fonts: $(ls "$work/fonts/train" | wc -l) for training, $(ls "$work/fonts/valid" | wc -l) held out"
-
-# Synthetic sets: ledger and register phrases in the training fonts, real MNIST digits (training split,
-# samples 0-499) with separators in the training fonts, and the held-out validation sets.
+# Training sets: ledger and register phrases in the training fonts, real MNIST digits (training split, samples
+# 0-499) with separators in the training fonts.
 s=$work/synth
 if runs 3; then
   [ -s "$s/train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 60000 --seed 11 --out "$s/train"
   [ -s "$s/train2/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 140000 --seed 13 --out "$s/train2"
   [ -s "$s/mnist-train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --mnist "$work/mnist" --mnist-split Training --count 30000 --seed 21 --out "$s/mnist-train"
 fi
-[ -s "$s/valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 12 --out "$s/valid"
-[ -s "$s/mnist-valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 22 --out "$s/mnist-valid"
-# Test sets for the card (tools/measure-default.sh): fresh lines from the same held-out fonts and digit samples,
-# never used to choose a model.
-[ -s "$s/test-fonts/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 14 --out "$s/test-fonts"
-[ -s "$s/test-mnist/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 23 --out "$s/test-mnist"
-# One validation manifest for both kinds of line (paths must stay inside the manifest's folder).
-{ echo "# validation: 1,000 font lines (held-out fonts) + 1,000 MNIST digit lines (samples 500-559)"
-  grep -v '^#' "$s/valid/lines.tsv" | sed 's#^#valid/#'
-  grep -v '^#' "$s/mnist-valid/lines.tsv" | sed 's#^#mnist-valid/#'; } > "$s/valid-mixed.tsv"
 
 if (( first > 1 )) && [ ! -s "$(stage_out $((first - 1)))" ]; then cp models/default.hlm "$(stage_out $((first - 1)))"; fi
 

@@ -1,0 +1,39 @@
+#!/usr/bin/env bash
+# Recipe for the next default network: setting (f) of the architecture comparison in models/README.md, the
+# convolutional front end with a 2 x 192 bidirectional LSTM (1.62 M parameters), trained from new weights in
+# parts, one or more per working session. .cache does not survive a fresh checkout, so each session ends by
+# committing the part's best state as models/next.hlm, and the next part starts from that file (--from: the
+# weights carry over, Adam's moment estimates start afresh). Rerunning a part in the same checkout resumes it
+# from its checkpoint. Usage: tools/train-next.sh PART [MINUTES] (MINUTES: the part's training time over all
+# its runs, preparing lines not counted; the default reproduces part 1, stopped after its third epoch).
+set -euo pipefail
+cd "$(dirname "$0")/.."
+part="${1:?usage: tools/train-next.sh PART [MINUTES]}"
+minutes="${2:-116}"
+work=.cache
+s=$work/synth
+hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
+
+# Each part: its training sets (NAME:LINES:SEED; names starting "mnist" are MNIST digit lines, training split)
+# and Adam step size.
+case "$part" in
+  1) sets=(train:60000:11 mnist-train:30000:21); step=0.001 ;; # the default model's first font and digit sets
+  *) echo "tools/train-next.sh: part $part is not defined yet" >&2; exit 2 ;;
+esac
+
+bash tools/make-sets.sh # fonts, digits, the validation and test sets
+manifests=()
+for set in "${sets[@]}"; do
+  IFS=: read -r name lines seed <<< "$set"
+  digits=()
+  [[ "$name" == mnist* ]] && digits=(--mnist "$work/mnist" --mnist-split Training)
+  [ -s "$s/$name/lines.tsv" ] || hl synth --fonts "$work/fonts/train" "${digits[@]}" --count "$lines" --seed "$seed" --out "$s/$name"
+  manifests+=("$s/$name/lines.tsv")
+done
+
+start=(--line-height 32 --frame-stride 3 --hidden 192 --layers 2 --convolution)
+(( part > 1 )) && start=(--from models/next.hlm)
+hl train "${start[@]}" --train "${manifests[@]}" --valid "$s/valid-mixed.tsv" --out "$work/next$part.hlm" \
+  --learning-rate "$step" --epoch-lines 25000 --seed "$part" --threads 2 --batch 32 --epochs 40 \
+  --max-minutes "$minutes" --resume --keep-prepared
+cp "$work/next$part.hlm" models/next.hlm
