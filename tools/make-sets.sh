@@ -1,8 +1,10 @@
 #!/usr/bin/env bash
 # Fonts, MNIST digits and the held-out sets that every training recipe and tools/measure-default.sh use:
 # fetches the fonts and digits, splits the fonts into training and held-out styles, and renders the validation
-# and test sets (about a minute). Idempotent: existing sets are kept. Training sets are each recipe's own.
-# Usage: tools/make-sets.sh (from any folder; works in the checkout's .cache).
+# and test sets (about a minute), then the training sets a recipe names. Idempotent: existing sets are kept.
+# Usage: tools/make-sets.sh [NAME:LINES:SEED]... (from any folder; works in the checkout's .cache). Each argument
+# is a training set: LINES ledger and register phrases in the training fonts, or, for names starting "mnist",
+# lines of real MNIST digits (training split, samples 0-499) with separators in the training fonts.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 work=.cache
@@ -35,3 +37,10 @@ s=$work/synth
 { echo "# validation: 1,000 font lines (held-out fonts) + 1,000 MNIST digit lines (samples 500-559)"
   grep -v '^#' "$s/valid/lines.tsv" | sed 's#^#valid/#'
   grep -v '^#' "$s/mnist-valid/lines.tsv" | sed 's#^#mnist-valid/#'; } > "$s/valid-mixed.tsv"
+
+for set in "$@"; do
+  IFS=: read -r name lines seed <<< "$set"
+  digits=()
+  [[ "$name" == mnist* ]] && digits=(--mnist "$work/mnist" --mnist-split Training)
+  [ -s "$s/$name/lines.tsv" ] || hl synth --fonts "$work/fonts/train" "${digits[@]}" --count "$lines" --seed "$seed" --out "$s/$name"
+done

@@ -21,16 +21,15 @@ stage_out() { if (( $1 == 1 )); then echo "$work/default.hlm"; else echo "$work/
 runs() { (( first <= $1 )); } # STAGE: whether this run includes it
 hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 
-bash tools/make-sets.sh # fonts, digits, the validation and test sets
-
-# Training sets: ledger and register phrases in the training fonts, real MNIST digits (training split, samples
-# 0-499) with separators in the training fonts.
+# Training sets (tools/make-sets.sh renders them with the held-out sets): ledger and register phrases in the
+# training fonts, real MNIST digit lines. Stage 4 (fifth session, whose fresh checkout had lost .cache) has new
+# lines rather than a second render of the same ones (new seeds: 100,000 font lines, 50,000 digit lines, so
+# digits, furthest from their target, make a third of the lines).
+sets=()
+runs 3 && sets+=(train:60000:11 train2:140000:13 mnist-train:30000:21)
+runs 4 && sets+=(train3:100000:15 mnist-train2:50000:25)
+bash tools/make-sets.sh "${sets[@]}"
 s=$work/synth
-if runs 3; then
-  [ -s "$s/train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 60000 --seed 11 --out "$s/train"
-  [ -s "$s/train2/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 140000 --seed 13 --out "$s/train2"
-  [ -s "$s/mnist-train/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --mnist "$work/mnist" --mnist-split Training --count 30000 --seed 21 --out "$s/mnist-train"
-fi
 
 if (( first > 1 )) && [ ! -s "$(stage_out $((first - 1)))" ]; then cp models/default.hlm "$(stage_out $((first - 1)))"; fi
 
@@ -52,12 +51,6 @@ runs 2 && continue_on "$work/default.hlm" "$work/default2.hlm" 0.0005 2 "$stage2
 # Stage 3: half the step size (stage 2's validation CER was still falling when it stopped, and a smaller step at
 # the end of a limited budget usually gains more than the same time at the old one: common practice, no source).
 runs 3 && continue_on "$work/default2.hlm" "$work/default3.hlm" 0.00025 3 "$stage3_minutes" "${first_sets[@]}"
-# Stage 4 (fifth session, whose fresh checkout had lost .cache): new lines rather than a second render of the
-# same ones (new seeds: 100,000 font lines, 50,000 digit lines, so digits, furthest from their target, make a
-# third of the lines), same step size.
-if runs 4; then
-  [ -s "$s/train3/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --count 100000 --seed 15 --out "$s/train3"
-  [ -s "$s/mnist-train2/lines.tsv" ] || hl synth --fonts "$work/fonts/train" --mnist "$work/mnist" --mnist-split Training --count 50000 --seed 25 --out "$s/mnist-train2"
-  continue_on "$work/default3.hlm" "$work/default4.hlm" 0.00025 4 "$stage4_minutes" "$s/train3/lines.tsv" "$s/mnist-train2/lines.tsv"
-fi
+# Stage 4: the new lines above, same step size.
+runs 4 && continue_on "$work/default3.hlm" "$work/default4.hlm" 0.00025 4 "$stage4_minutes" "$s/train3/lines.tsv" "$s/mnist-train2/lines.tsv"
 cp "$work/default4.hlm" models/default.hlm

@@ -14,22 +14,15 @@ work=.cache
 s=$work/synth
 hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 
-# Each part: its training sets (NAME:LINES:SEED; names starting "mnist" are MNIST digit lines, training split)
-# and Adam step size.
+# Each part: its training sets (NAME:LINES:SEED, as tools/make-sets.sh takes them) and Adam step size.
 case "$part" in
   1) sets=(train:60000:11 mnist-train:30000:21); step=0.001 ;; # the default model's first font and digit sets
   *) echo "tools/train-next.sh: part $part is not defined yet" >&2; exit 2 ;;
 esac
 
-bash tools/make-sets.sh # fonts, digits, the validation and test sets
+bash tools/make-sets.sh "${sets[@]}" # fonts, digits, the held-out sets and this part's training sets
 manifests=()
-for set in "${sets[@]}"; do
-  IFS=: read -r name lines seed <<< "$set"
-  digits=()
-  [[ "$name" == mnist* ]] && digits=(--mnist "$work/mnist" --mnist-split Training)
-  [ -s "$s/$name/lines.tsv" ] || hl synth --fonts "$work/fonts/train" "${digits[@]}" --count "$lines" --seed "$seed" --out "$s/$name"
-  manifests+=("$s/$name/lines.tsv")
-done
+for set in "${sets[@]}"; do manifests+=("$s/${set%%:*}/lines.tsv"); done
 
 start=(--line-height 32 --frame-stride 3 --hidden 192 --layers 2 --convolution)
 (( part > 1 )) && start=(--from models/next.hlm)
