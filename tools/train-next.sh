@@ -5,11 +5,11 @@
 # committing the part's best state as models/next.hlm, and the next part starts from that file (--from: the
 # weights carry over, Adam's moment estimates start afresh). Rerunning a part in the same checkout resumes it
 # from its checkpoint. Usage: tools/train-next.sh PART [MINUTES] (MINUTES: the part's training time over all
-# its runs, preparing lines not counted; the default reproduces part 1, stopped after its third epoch).
+# its runs, preparing lines not counted; the default reproduces part 1, stopped just after its sixth epoch).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 part="${1:?usage: tools/train-next.sh PART [MINUTES]}"
-minutes="${2:-116}"
+minutes="${2:-212.1}"
 work=.cache
 s=$work/synth
 hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }

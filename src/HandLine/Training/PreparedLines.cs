@@ -84,7 +84,7 @@ public static class PreparedLines
     {
         using var hash = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
         void Add(string s) => hash.AppendData(Encoding.UTF8.GetBytes(s + "\n"));
-        Add(typeof(PreparedLines).Assembly.ManifestModule.ModuleVersionId.ToString()); // deterministic builds: same code, same id
+        Add(typeof(PreparedLines).Assembly.ManifestModule.ModuleVersionId.ToString()); // deterministic builds, no commit id in the version: same code, same id
         Add(JsonSerializer.Serialize(imaging));
         foreach (var e in entries)
         {
