@@ -5,20 +5,23 @@
 # committing the part's best state as models/next.hlm, and the next part starts from that file (--from: the
 # weights carry over, Adam's moment estimates start afresh). Rerunning a part in the same checkout resumes it
 # from its checkpoint. Usage: tools/train-next.sh PART [MINUTES] (MINUTES: the part's training time over all
-# its runs, preparing lines not counted; the default reproduces part 1, stopped just after its sixth epoch).
+# its runs, preparing lines not counted; each part's default is in the table below).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 part="${1:?usage: tools/train-next.sh PART [MINUTES]}"
-minutes="${2:-212.1}"
 work=.cache
 s=$work/synth
 hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 
-# Each part: its training sets (NAME:LINES:SEED, as tools/make-sets.sh takes them) and Adam step size.
+# Each part: its training sets (NAME:LINES:SEED, as tools/make-sets.sh takes them), Adam step size and minutes.
 case "$part" in
-  1) sets=(train:60000:11 mnist-train:30000:21); step=0.001 ;; # the default model's first font and digit sets
+  # the default model's first font and digit sets; 212.1 reproduces the stop just after epoch 6
+  1) sets=(train:60000:11 mnist-train:30000:21); step=0.001; planned=212.1 ;;
+  # the default model's stage-4 sets; started at the end of session 7, not yet run to its end
+  2) sets=(train3:100000:15 mnist-train2:50000:25); step=0.001; planned=240 ;;
   *) echo "tools/train-next.sh: part $part is not defined yet" >&2; exit 2 ;;
 esac
+minutes="${2:-$planned}"
 
 bash tools/make-sets.sh "${sets[@]}" # fonts, digits, the held-out sets and this part's training sets
 manifests=()
