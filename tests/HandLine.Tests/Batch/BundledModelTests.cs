@@ -65,8 +65,8 @@ public sealed class BundledModelTests : IDisposable
         // deterministically (seed 50) with the full degradation mix; separators are drawn in the test fonts.
         // The specification's target is CER at most 5 %; the committed models do not all reach it (measured with
         // `handline synth --fonts fixtures/fonts --mnist fixtures/mnist --mnist-split Validation --count 50
-        // --seed 50`, transcribe, score; models/README.md). The bound is that measurement plus a margin of 2
-        // points (8 of the 391 characters); lower it to 5 % when the model gets there.
+        // --seed 50`, transcribe, score; models/README.md). A model that reaches it is held to it; one that does
+        // not yet is held to its measurement plus a margin of 2 points (8 of the 391 characters).
         var digits = MnistDigits.Load(Path.Combine(TestPaths.Fixtures, "mnist"));
         using var fonts = FontCatalog.Load([Path.Combine(TestPaths.Fixtures, "fonts")]);
         var lines = Path.Combine(_dir, "digits");
@@ -76,7 +76,9 @@ public sealed class BundledModelTests : IDisposable
         var outDir = Path.Combine(_dir, "digits-out");
         TranscribeRun.Run([summary.ManifestPath], new TranscribeOptions(outDir, PathOf(file)));
         var report = Scorer.ScoreRun(summary.ManifestPath, outDir);
-        var maxCer = Measured[file].Digits + 0.02;
+        const double Target = 0.05;
+        var measured = Measured[file].Digits;
+        var maxCer = measured <= Target ? Target : measured + 0.02;
         Assert.True(report.Cer <= maxCer, $"{file}: MNIST digit-line CER {report.Cer:P2} is above {maxCer:P2}");
     }
 }
