@@ -25,11 +25,15 @@ internal sealed class BatchProgress
         _time = time ?? TimeProvider.System;
     }
 
-    public void Start(int total, int inputErrors)
+    /// <param name="inputErrors">Inputs found bad before any image is read (a manifest line, a missing file):
+    /// each is told now, the same way as an image that fails later.</param>
+    public void Start(int total, IReadOnlyList<InputException> inputErrors)
     {
+        ArgumentNullException.ThrowIfNull(inputErrors);
         _total = total;
-        _errors = inputErrors;
+        _errors = inputErrors.Count;
         _started = _lastShown = _time.GetTimestamp();
+        foreach (var e in inputErrors) _writer?.WriteLine(ErrorLine(e));
         if (_style == ProgressStyle.Terminal) Show();
     }
 
@@ -55,10 +59,12 @@ internal sealed class BatchProgress
         _errors++;
         if (_writer is null) return;
         if (_style == ProgressStyle.Terminal) ClearLine();
-        _writer.WriteLine($"error: {e.Message}");
+        _writer.WriteLine(ErrorLine(e));
         if (_style == ProgressStyle.Terminal) Show();
         Tick();
     }
+
+    private static string ErrorLine(InputException e) => $"error: {e.Message}";
 
     /// <summary>Ends the status line at a terminal; a plain log gets the caller's closing summary instead.</summary>
     public void Finish()

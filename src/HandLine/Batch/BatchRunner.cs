@@ -44,7 +44,7 @@ internal static class BatchRunner
         {
             using var compacted = new JournalWriter(outDir);
             using var reports = new RunReports(outDir);
-            progress.Start(total, myInputErrors.Count(m => m));
+            progress.Start(total, job.InputErrors.Where((_, i) => myInputErrors[i]).ToArray());
 
             for (var i = 0; i < inputErrorCount; i++)
             {

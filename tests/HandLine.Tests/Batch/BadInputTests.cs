@@ -98,6 +98,7 @@ public sealed class BadInputTests : IDisposable
             Assert.Equal("manifest", actual.Stage);
             Assert.StartsWith(line + ":", actual.Reason);
             Assert.Contains(words, actual.Reason);
+            Assert.Contains($"{manifest}: {actual.Reason}", stderr); // also told on stderr
         }
 
         var good = new List<string> { "good-1.png", "good-2.png", "good-3.jpg", "entry-1.png" };

@@ -21,13 +21,14 @@ public sealed class BatchProgressTests
         var clock = new ManualClock();
         var log = new StringWriter();
         var p = new BatchProgress(log, ProgressStyle.Plain, Options, clock);
-        p.Start(total: 10, inputErrors: 1);
+        p.Start(total: 10, inputErrors: [new InputException("/scans/register.tsv", "manifest", "line 3: no tab between path and transcript")]);
+        const string Told = "error: /scans/register.tsv: line 3: no tab between path and transcript\n"; // a bad input is told at once
         for (var i = 0; i < 4; i++) { clock.Advance(TimeSpan.FromSeconds(2)); p.Read(lines: 2); }
-        Assert.Equal("", log.ToString()); // 8 s: nothing yet
+        Assert.Equal(Told, log.ToString().Replace("\r\n", "\n")); // 8 s: no status line yet
 
         clock.Advance(TimeSpan.FromSeconds(2));
         p.Read(lines: 2); // 10 s: 5 images read, 10 lines, 1 line/s; 5 left at 2 s each
-        Assert.Equal("5/10 images, 10 lines, 1.0 lines/s, 0:10 left, 1 error\n", log.ToString().Replace("\r\n", "\n"));
+        Assert.Equal(Told + "5/10 images, 10 lines, 1.0 lines/s, 0:10 left, 1 error\n", log.ToString().Replace("\r\n", "\n"));
 
         p.Failed(new InputException("/scans/folio-6.png", "decode", "the file is cut short"));
         Assert.EndsWith("error: /scans/folio-6.png: the file is cut short\n", log.ToString().Replace("\r\n", "\n"));
@@ -39,7 +40,7 @@ public sealed class BatchProgressTests
     {
         var clock = new ManualClock();
         var p = new BatchProgress(null, ProgressStyle.Plain, Options, clock);
-        p.Start(total: 4, inputErrors: 0);
+        p.Start(total: 4, inputErrors: []);
         p.Reused(lines: 3);
         p.Reused(lines: 3);
         Assert.StartsWith("2/4 images, 6 lines, 0.0 lines/s, time left unknown", p.Status());
@@ -54,7 +55,7 @@ public sealed class BatchProgressTests
         var clock = new ManualClock();
         var screen = new StringWriter();
         var p = new BatchProgress(screen, ProgressStyle.Terminal, Options, clock);
-        p.Start(total: 3, inputErrors: 0);
+        p.Start(total: 3, inputErrors: []);
         clock.Advance(TimeSpan.FromSeconds(1));
         p.Read(lines: 1);
         clock.Advance(TimeSpan.FromSeconds(1));
@@ -73,7 +74,7 @@ public sealed class BatchProgressTests
     {
         var log = new StringWriter();
         var p = new BatchProgress(log, ProgressStyle.None, Options, new ManualClock());
-        p.Start(2, 0);
+        p.Start(2, []);
         p.Failed(new InputException("a.png", "decode", "the file is empty"));
         p.Read(1);
         p.Finish();
