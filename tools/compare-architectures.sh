@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # The architecture comparison in models/README.md: six settings trained on the same lines (the seed-11 set
-# made by tools/train-default.sh, in the same shuffled order), with the same seed and the same budget
+# made by tools/make-sets.sh, in the same shuffled order), with the same seed and the same budget
 # (MAX_LINES lines seen, default 30,000, in epochs of 10,000), validated after each epoch on the 1,000
 # unseen-font validation lines. Each run uses one thread; JOBS (default 2, one per core) run at a time, longest
 # first, so no run competes with more than one other. Rerunning resumes interrupted runs from their checkpoints

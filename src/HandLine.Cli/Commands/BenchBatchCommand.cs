@@ -93,7 +93,8 @@ internal static class BenchBatchCommand
         }
         // Same cost per line as the bundled model: the shape tools/train-default.sh trains.
         var path = Path.Combine(workDir, "untrained.hlm");
-        using var model = LineModel.Create(CharacterSet.Default, new FeatureConfig(LineHeight: 32, FrameStride: 3), new NetworkConfig(128, 2), 1);
+        using var model = LineModel.Create(CharacterSet.Default, new FeatureConfig(LineHeight: 32, FrameStride: 3),
+            new NetworkConfig(Hidden: 192, Layers: 2, Convolution: true), 1);
         model.Save(path, null, null);
         note = "untrained network of the bundled model's shape (no bundled model in this build)";
         return path;
