@@ -1,15 +1,23 @@
 namespace HandLine.Imaging;
 
 /// <summary>
-/// Bounding box of the ink that matters: 8-connected blobs of pixels ≥ 0.5. Blobs under
-/// <c>speckFraction</c> of the largest are dust and ignored; other small blobs count only when near
-/// the letters, so isolated specks cannot stretch the crop.
+/// Bounding box of the ink that matters: 8-connected blobs of pixels ≥ 0.25 that hold at least one pixel
+/// ≥ 0.5 (hysteresis, as in Canny 1986). Blobs under <c>speckFraction</c> of the largest are dust and
+/// ignored; other small blobs count only when near the letters, so isolated specks cannot stretch the crop.
 /// </summary>
 internal static class InkBounds
 {
-    // Common practice, no source: a blob with a tenth of the largest blob's ink is a letter;
-    // smaller ink within half a line height of the letters belongs to the line.
-    private const double CoreFraction = 0.1, NearFraction = 0.5;
+    // A blob with a twentieth of the largest blob's ink is a letter; smaller ink within half a line height of
+    // the letters belongs to the line. Rule of thumb (common practice, no source), tuned on the held-out
+    // validation lines (see LowInk): a tenth read 3.79 % / 5.77 % CER on digit / font lines, a twentieth
+    // 3.71 % / 5.70 %, a fiftieth no better.
+    private const double CoreFraction = 0.05, NearFraction = 0.5;
+
+    // The crop once took blobs at ≥ 0.5 alone. Ink is scaled so the darkest strokes reach 1, so a word in
+    // lighter ink beside bold figures ("No." before a folio number) fell apart into specks and was cut off:
+    // on 1,000 held-out digit lines the default model then read 4.68 % CER, 113 characters deleted. Faint
+    // strokes now hold together at 0.25, and a dark core keeps paper noise at that level out.
+    private const float LowInk = 0.25f, HighInk = 0.5f;
 
     public readonly record struct Box(int X0, int Y0, int X1, int Y1)
     {
@@ -28,7 +36,7 @@ internal static class InkBounds
             for (int x = 0; x < w; x++)
             {
                 int i = y * w + x;
-                if (p[i] < 0.5f) { parent[i] = -1; continue; }
+                if (p[i] < LowInk) { parent[i] = -1; continue; }
                 parent[i] = i;
                 if (x > 0 && parent[i - 1] >= 0) Union(parent, i, i - 1);
                 if (y > 0)
@@ -42,13 +50,24 @@ internal static class InkBounds
         }
 
         var area = new int[p.Length];
-        int largest = 0;
+        var seeded = new bool[p.Length];
         for (int i = 0; i < p.Length; i++)
             if (parent[i] >= 0)
             {
                 int r = Find(parent, i);
                 parent[i] = r;
-                largest = Math.Max(largest, ++area[r]);
+                area[r]++;
+                seeded[r] |= p[i] >= HighInk;
+            }
+        // Blobs without a dark core are paper, not ink: their area counts as 0.
+        int largest = 0;
+        for (int i = 0; i < p.Length; i++)
+            if (parent[i] == i)
+            {
+                if (seeded[i])
+                    largest = Math.Max(largest, area[i]);
+                else
+                    area[i] = 0;
             }
         if (largest == 0)
             return null;
@@ -83,6 +102,8 @@ internal static class InkBounds
         var small = new List<Box>();
         for (int k = 0; k < areas.Count; k++)
         {
+            if (areas[k] == 0)
+                continue; // no dark core
             var box = new Box(bx0[k], by0[k], bx1[k], by1[k]);
             if (areas[k] >= CoreFraction * largest)
                 line = line is { } l ? Union(l, box) : box;

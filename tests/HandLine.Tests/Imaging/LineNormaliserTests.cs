@@ -130,6 +130,37 @@ public sealed class LineNormaliserTests
     }
 
     [Fact]
+    public void A_word_in_lighter_ink_is_cropped_like_the_same_word_in_dark_ink()
+    {
+        // A faint "No." before a bold folio number: the crop once dropped it, because only its darkest
+        // pixels counted as ink and they fell apart into specks (the case measured in InkBounds).
+        var options = Defaults with { CorrectSlant = false, MaxDeskewDegrees = 0 };
+        var faint = LineNormaliser.Normalise(WordBesideFigure(edge: 0.6f, core: 0.4f), options).Ink;
+        var dark = LineNormaliser.Normalise(WordBesideFigure(edge: 0.05f, core: 0.05f), options).Ink;
+        var figureAlone = LineNormaliser.Normalise(WordBesideFigure(edge: 0.95f, core: 0.95f), options).Ink;
+        Assert.InRange(faint.Width, dark.Width - 1, dark.Width + 1);
+        Assert.True(dark.Width > 2 * figureAlone.Width, $"the word is not in the crop: {dark.Width} vs {figureAlone.Width}");
+    }
+
+    /// <summary>
+    /// Paper 0.95; three upright strokes 3 px wide and 20 tall (luminance <paramref name="edge"/> at the sides,
+    /// <paramref name="core"/> in the middle), a 30 px gap, then a bold 16 × 32 figure at 0.05.
+    /// </summary>
+    private static GrayImage WordBesideFigure(float edge, float core)
+    {
+        const int width = 140, height = 64;
+        var p = Enumerable.Repeat(0.95f, width * height).ToArray();
+        for (int stroke = 0; stroke < 3; stroke++)
+            for (int y = 26; y < 46; y++)
+                for (int dx = 0; dx < 3; dx++)
+                    p[y * width + 16 + 9 * stroke + dx] = dx == 1 ? core : edge;
+        for (int y = 16; y < 48; y++)
+            for (int x = 73; x < 89; x++)
+                p[y * width + x] = 0.05f;
+        return new GrayImage(width, height, p);
+    }
+
+    [Fact]
     public void Blank_image_has_no_ink()
     {
         var result = LineNormaliser.Normalise(GrayImage.Filled(300, 60, 0.93f), Defaults);
