@@ -79,8 +79,19 @@ internal static class TrainCommand
             var limits = new ImagingOptions();
             var clock = System.Diagnostics.Stopwatch.StartNew();
             var keep = parse.GetValue(keepPrepared);
-            var (trainSet, trainErrors) = TrainingData.Load(parse.GetValue(train)!, model.Features, model.Charset, limits, options.Threads, keep, Console.Error.WriteLine);
-            var (validSet, validErrors) = TrainingData.Load([parse.GetValue(valid)!], model.Features, model.Charset, limits, options.Threads, keep, Console.Error.WriteLine);
+            IReadOnlyList<LineSample> trainSet, validSet;
+            IReadOnlyList<InputException> trainErrors, validErrors;
+            try
+            {
+                (trainSet, trainErrors) = TrainingData.Load(parse.GetValue(train)!, model.Features, model.Charset, limits, options.Threads, keep, Console.Error.WriteLine, cancel);
+                (validSet, validErrors) = TrainingData.Load([parse.GetValue(valid)!], model.Features, model.Charset, limits, options.Threads, keep, Console.Error.WriteLine, cancel);
+            }
+            catch (OperationCanceledException)
+            {
+                // Preparing many lines takes minutes; a stop then has nothing to save.
+                Console.Error.WriteLine("stopped while preparing lines: nothing was trained or written");
+                return ExitCodes.Cancelled;
+            }
             foreach (var e in trainErrors.Concat(validErrors).Take(20)) Console.Error.WriteLine($"skipped: {e.Message}");
             if (trainErrors.Count + validErrors.Count > 20) Console.Error.WriteLine($"... {trainErrors.Count + validErrors.Count - 20} more skipped");
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,

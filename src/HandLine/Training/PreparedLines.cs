@@ -28,14 +28,15 @@ public static class PreparedLines
     /// Prepared lines for <paramref name="entries"/> (one per entry, same order). With <paramref name="keep"/> a
     /// matching cache file is read instead of the images, and a fresh preparation is written to it
     /// (atomically; a failure to write is reported through <paramref name="note"/> and otherwise ignored).
+    /// <paramref name="cancel"/> stops a preparation with an <see cref="OperationCanceledException"/>, writing nothing.
     /// </summary>
     public static IReadOnlyList<Line> Load(string manifest, IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging,
-        int threads, bool keep, Action<string>? note = null)
+        int threads, bool keep, Action<string>? note = null, CancellationToken cancel = default)
     {
         ArgumentNullException.ThrowIfNull(manifest);
         ArgumentNullException.ThrowIfNull(entries);
         ArgumentNullException.ThrowIfNull(imaging);
-        if (!keep) return Prepare(entries, imaging, threads);
+        if (!keep) return Prepare(entries, imaging, threads, cancel);
 
         var path = CachePath(manifest);
         var key = Key(entries, imaging);
@@ -45,7 +46,7 @@ public static class PreparedLines
             note?.Invoke($"read {entries.Count} prepared lines from {path}");
             return cached;
         }
-        var lines = Prepare(entries, imaging, threads);
+        var lines = Prepare(entries, imaging, threads, cancel);
         try
         {
             Write(path, key, imaging.LineHeight, lines);
@@ -58,10 +59,14 @@ public static class PreparedLines
         return lines;
     }
 
-    private static Line[] Prepare(IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging, int threads)
+    private static Line[] Prepare(IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging, int threads, CancellationToken cancel)
     {
         var lines = new Line[entries.Count];
-        var parallel = new ParallelOptions { MaxDegreeOfParallelism = threads > 0 ? threads : Environment.ProcessorCount };
+        var parallel = new ParallelOptions
+        {
+            MaxDegreeOfParallelism = threads > 0 ? threads : Environment.ProcessorCount,
+            CancellationToken = cancel,
+        };
         Parallel.For(0, entries.Count, parallel, i =>
         {
             var e = entries[i];

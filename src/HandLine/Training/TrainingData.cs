@@ -14,9 +14,11 @@ public static class TrainingData
     /// <param name="keepPrepared">Keep each manifest's prepared lines in a file beside it and reuse them
     /// (see <see cref="PreparedLines"/>).</param>
     /// <param name="note">Where messages about kept prepared lines go.</param>
+    /// <param name="cancel">Stops the preparation (it can take many minutes) with an
+    /// <see cref="OperationCanceledException"/>; nothing is kept then.</param>
     public static (IReadOnlyList<LineSample> Samples, IReadOnlyList<InputException> Errors) Load(
         IEnumerable<string> manifests, FeatureConfig features, CharacterSet charset, ImagingOptions limits, int threads = 0,
-        bool keepPrepared = false, Action<string>? note = null)
+        bool keepPrepared = false, Action<string>? note = null, CancellationToken cancel = default)
     {
         var imaging = LinePreparation.ImagingFor(features, limits);
         var errors = new List<InputException>();
@@ -25,7 +27,7 @@ public static class TrainingData
         {
             var read = Manifest.Read(m);
             errors.AddRange(read.Errors);
-            var lines = PreparedLines.Load(m, read.Entries, imaging, threads, keepPrepared, note);
+            var lines = PreparedLines.Load(m, read.Entries, imaging, threads, keepPrepared, note, cancel);
             for (var i = 0; i < lines.Count; i++)
             {
                 var e = read.Entries[i];

@@ -43,6 +43,17 @@ public sealed class PreparedLinesTests : IDisposable
     }
 
     [Fact]
+    public void AStopWhilePreparingEndsAtOnceAndKeepsNothing()
+    {
+        var manifest = WriteManifest();
+        using var stop = new CancellationTokenSource();
+        stop.Cancel();
+        Assert.ThrowsAny<OperationCanceledException>(() => TrainingData.Load([manifest], Features, CharacterSet.Default,
+            new ImagingOptions(), 1, keepPrepared: true, cancel: stop.Token));
+        Assert.Empty(Directory.GetFiles(_dir, "*.prepared*"));
+    }
+
+    [Fact]
     public void KeptLinesReadBackExactlyAsPreparedAndKeepTheirErrors()
     {
         var manifest = WriteManifest();
