@@ -5,7 +5,8 @@
 # session ends by committing the part's best state as models/default.hlm, and the next part starts from that file
 # (--from: the weights carry over, Adam's moment estimates start afresh). Rerunning a part in the same checkout
 # resumes it from its checkpoint. Usage: tools/train-default.sh PART [MINUTES] (MINUTES: the part's training time
-# over all its runs, preparing lines not counted; each part's default is in the table below).
+# over all its runs, preparing lines not counted; each part's default is in the table below). To redo a part
+# exactly, check out the commit whose models/default.hlm is the previous part's result.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 part="${1:?usage: tools/train-default.sh PART [MINUTES]}"
@@ -17,8 +18,11 @@ hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 case "$part" in
   # the small model's first font and digit sets; 212.1 reproduces the stop just after epoch 6
   1) sets=(train:60000:11 mnist-train:30000:21); step=0.001; planned=212.1 ;;
-  # the small model's stage-4 sets
-  2) sets=(train3:100000:15 mnist-train2:50000:25); step=0.001; planned=240 ;;
+  # the small model's stage-4 sets; 121.8 reproduces the stop in epoch 9
+  2) sets=(train3:100000:15 mnist-train2:50000:25); step=0.001; planned=121.8 ;;
+  # the small model's second stage-1 set (140,000 font lines) and new digit lines: 300,000 distinct font lines
+  # over parts 1-3
+  3) sets=(train2:140000:13 mnist-train3:50000:27); step=0.001; planned=150 ;;
   *) echo "tools/train-default.sh: part $part is not defined yet" >&2; exit 2 ;;
 esac
 minutes="${2:-$planned}"

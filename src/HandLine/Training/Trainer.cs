@@ -10,7 +10,10 @@ using static TorchSharp.torch;
 
 namespace HandLine.Training;
 
-/// <summary>Outcome of a training run.</summary>
+/// <summary>
+/// Outcome of a training run. <see cref="BestValidationCer"/> is the validation CER of the model file written,
+/// which may come from the validation made when the run stopped mid-epoch.
+/// </summary>
 public sealed record TrainingResult(double BestValidationCer, int Epochs, long LinesSeen, double Minutes, bool StoppedEarly, string? ModelId);
 
 /// <summary>
@@ -141,7 +144,7 @@ public sealed class Trainer
                 break;
             }
         }
-        return new TrainingResult(state.BestCer, state.Epoch, state.LinesSeen, state.Minutes, stopped, bestId);
+        return new TrainingResult(state.SavedOrBestCer, state.Epoch, state.LinesSeen, state.Minutes, stopped, bestId);
     }
 
     /// <summary>

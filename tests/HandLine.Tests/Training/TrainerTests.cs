@@ -76,11 +76,16 @@ public sealed class TrainerTests : IDisposable
         using var straight = Model();
         new Trainer(TextWriter.Null).Train(straight, lines, probe, Path.Combine(_dir, "a.hlm"), Options(6, false), record);
 
+        TrainingResult stoppedRun;
         using (var first = Model())
-            new Trainer(TextWriter.Null).Train(first, lines, probe, Path.Combine(_dir, "b.hlm"), Options(3, false), record);
-        // Stopped mid-epoch: the weights so far were validated and saved, so an interrupted run still leaves a model.
+            stoppedRun = new Trainer(TextWriter.Null).Train(first, lines, probe, Path.Combine(_dir, "b.hlm"), Options(3, false), record);
+        // Stopped mid-epoch: the weights so far were validated and saved, so an interrupted run still leaves a
+        // model, and the run reports that model's CER (no epoch had ended to give another).
         using (var saved = ModelFile.Load(Path.Combine(_dir, "b.hlm")))
+        {
             Assert.NotNull(saved.Header.ValidationCer);
+            Assert.Equal(saved.Header.ValidationCer!.Value, stoppedRun.BestValidationCer, 5);
+        }
         using var resumed = Model(); // fresh weights: everything must come from the checkpoint
         new Trainer(TextWriter.Null).Train(resumed, lines, probe, Path.Combine(_dir, "b.hlm"), Options(6, true), record);
 
