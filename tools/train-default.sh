@@ -18,10 +18,11 @@ hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 case "$part" in
   # the small model's first font and digit sets; 212.1 reproduces the stop just after epoch 6
   1) sets=(train:60000:11 mnist-train:30000:21); step=0.001; planned=212.1 ;;
-  # the small model's stage-4 sets; 121.8 reproduces the stop in epoch 9
+  # the small model's stage-4 sets; 121.8: the training time at the stop in epoch 9 (where a time limit stops
+  # depends on the host's speed)
   2) sets=(train3:100000:15 mnist-train2:50000:25); step=0.001; planned=121.8 ;;
-  # the small model's second stage-1 set (140,000 font lines) and new digit lines: 300,000 distinct font lines
-  # over parts 1-3
+  # the small model's 140,000-line set of its stages 2-3 and new digit lines: 300,000 distinct font lines over
+  # parts 1-3
   3) sets=(train2:140000:13 mnist-train3:50000:27); step=0.001; planned=150 ;;
   *) echo "tools/train-default.sh: part $part is not defined yet" >&2; exit 2 ;;
 esac
