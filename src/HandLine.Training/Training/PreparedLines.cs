@@ -1,6 +1,7 @@
 using System.Security.Cryptography;
 using System.Text;
 using System.Text.Json;
+using HandLine.Features;
 using HandLine.Imaging;
 using HandLine.Scoring;
 
@@ -89,7 +90,10 @@ public static class PreparedLines
     {
         using var hash = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
         void Add(string s) => hash.AppendData(Encoding.UTF8.GetBytes(s + "\n"));
-        Add(typeof(PreparedLines).Assembly.ManifestModule.ModuleVersionId.ToString()); // deterministic builds, no commit id in the version: same code, same id
+        // The code that prepares a line lives in the runtime library (LinePreparation) and the packing here: both
+        // identities key the file. Deterministic builds, no commit id in the version: same code, same id.
+        Add(typeof(LinePreparation).Assembly.ManifestModule.ModuleVersionId.ToString());
+        Add(typeof(PreparedLines).Assembly.ManifestModule.ModuleVersionId.ToString());
         Add(JsonSerializer.Serialize(imaging));
         foreach (var e in entries)
         {
