@@ -37,14 +37,16 @@ public sealed record TrainingState(
 /// </summary>
 internal static class Checkpoint
 {
-    private static readonly byte[] Magic = "HLCHECK1"u8.ToArray();
+    // HLCHECK1 files held TorchSharp's own optimiser state; since HandLine has its own Adam they cannot resume.
+    private static readonly byte[] Magic = "HLCHECK2"u8.ToArray();
+    private static readonly byte[] FirstMagic = "HLCHECK1"u8.ToArray();
 
     // The best CER starts as +Infinity, which plain JSON numbers cannot carry.
     private static readonly JsonSerializerOptions Json = new() { NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals };
 
     public static string PathFor(string modelPath) => modelPath + ".checkpoint";
 
-    public static void Save(string path, TrainingState state, LineNetwork network, Adam optimizer)
+    public static void Save(string path, TrainingState state, LineNetwork network, AdamOptimiser optimizer)
     {
         using var ms = new MemoryStream();
         using (var w = new BinaryWriter(ms, Encoding.UTF8, leaveOpen: true))
@@ -52,22 +54,25 @@ internal static class Checkpoint
             w.Write(Magic);
             w.Write(JsonSerializer.Serialize(state, Json));
             network.save(w);
-            optimizer.save_state_dict(w);
+            optimizer.Save(w);
         }
         AtomicFile.WriteAllBytes(path, ms.ToArray());
     }
 
-    public static TrainingState Load(string path, LineNetwork network, Adam optimizer)
+    public static TrainingState Load(string path, LineNetwork network, AdamOptimiser optimizer)
     {
         try
         {
             using var r = new BinaryReader(File.OpenRead(path), Encoding.UTF8);
-            if (!r.ReadBytes(Magic.Length).AsSpan().SequenceEqual(Magic))
+            var magic = r.ReadBytes(Magic.Length);
+            if (magic.AsSpan().SequenceEqual(FirstMagic))
+                throw new InputException(path, "checkpoint", "this checkpoint was written by an older HandLine whose optimiser state cannot be read; delete it to start afresh (or continue from the saved model with --from)");
+            if (!magic.AsSpan().SequenceEqual(Magic))
                 throw new InputException(path, "checkpoint", "not a HandLine training checkpoint");
             var state = JsonSerializer.Deserialize<TrainingState>(r.ReadString(), Json)
                         ?? throw new InputException(path, "checkpoint", "checkpoint state is empty");
             network.load(r, strict: true);
-            optimizer.load_state_dict(r);
+            optimizer.Load(r);
             return state;
         }
         catch (Exception e) when (e is IOException or JsonException or ArgumentException or InvalidOperationException)

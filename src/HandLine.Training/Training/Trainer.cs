@@ -48,7 +48,7 @@ public sealed class Trainer
         TorchRuntime.SetThreads(options.Threads);
 
         var network = model.Network;
-        using var optimizer = optim.Adam(network.parameters(), lr: options.LearningRate);
+        using var optimizer = new AdamOptimiser(network.parameters(), options.LearningRate);
         var checkpointPath = Checkpoint.PathFor(outPath);
         var logPath = outPath + ".log.csv";
         var state = new TrainingState(0, 0, 0, 0, 0, options.LearningRate, double.PositiveInfinity, 0, 0, null);
@@ -215,10 +215,10 @@ public sealed class Trainer
         return nn.functional.ctc_loss(logProbs, targets, lengths, targetLengths, blank: 0, zero_infinity: true);
     }
 
-    private static float Step(LineNetwork network, Adam optimizer, IReadOnlyList<LineSample> batch, TrainingOptions options, int epoch, int index)
+    internal static float Step(LineNetwork network, AdamOptimiser optimizer, IReadOnlyList<LineSample> batch, TrainingOptions options, int epoch, int index)
     {
         using var scope = NewDisposeScope();
-        optimizer.zero_grad();
+        optimizer.ZeroGrad();
         network.train();
         var features = Features(batch, options, epoch, index);
         Tensor loss;
@@ -230,7 +230,7 @@ public sealed class Trainer
         }
         loss.backward();
         nn.utils.clip_grad_norm_(network.parameters(), options.ClipNorm);
-        optimizer.step();
+        optimizer.Step();
         return loss.item<float>();
     }
 
@@ -305,10 +305,7 @@ public sealed class Trainer
         return batches;
     }
 
-    private static void SetLearningRate(Adam optimizer, double lr)
-    {
-        foreach (var g in optimizer.ParamGroups) g.LearningRate = lr;
-    }
+    private static void SetLearningRate(AdamOptimiser optimizer, double lr) => optimizer.LearningRate = lr;
 
     private void Report(TrainingState s, int batchesPerEpoch, TrainingOptions o, float loss, double seconds, long lines)
     {

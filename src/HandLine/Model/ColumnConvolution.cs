@@ -48,13 +48,26 @@ public sealed class ColumnConvolution : nn.Module<Tensor, Tensor, Tensor>
         using var a1 = a.relu_();
         // Padding columns hold the first layer's bias, not zero; cleared, the second layer sees past a line's
         // end exactly what its own zero border shows a line alone, so a line reads the same alone or in a batch.
-        using var columns = arange(width, dtype: ScalarType.Int64);
-        using var inside = columns.unsqueeze(0).lt(lengths.unsqueeze(1) * frameStride).view(b, 1, 1, width);
+        using var inside = InsideMask(lengths, b, width);
         using var masked = a1.mul(inside);
         using var p = firstPool.call(masked);
         using var c = second.call(p);
         using var c1 = c.relu_();
         using var q = secondPool.call(c1); // [B, C, H/4, T]
         return q.permute(3, 0, 1, 2).reshape(t, b, -1);
+    }
+
+    /// <summary>
+    /// [B, 1, 1, W] float mask, 1 on each line's own columns. Built on the C# side rather than with
+    /// <c>arange(width)</c> and <c>lengths * frameStride</c>: those make TorchSharp Scalars from C# numbers, which
+    /// only the finaliser frees, and a collection on another thread could free one while libtorch reads it.
+    /// </summary>
+    private Tensor InsideMask(Tensor lengths, long batch, long width)
+    {
+        var frameCounts = lengths.data<long>().ToArray();
+        var mask = new float[batch * width];
+        for (var i = 0; i < batch; i++)
+            Array.Fill(mask, 1f, (int)(i * width), (int)Math.Min(width, frameCounts[i] * frameStride));
+        return tensor(mask, [batch, 1, 1, width]);
     }
 }

@@ -63,14 +63,17 @@ public sealed class LineNetwork : nn.Module<Tensor, Tensor, Tensor>
         foreach (var (name, target) in named_parameters())
         {
             var from = sourceParameters[name];
+            // Scalars made and disposed here, not from C# numbers: see ColumnConvolution.InsideMask.
             if (ReferenceEquals(target, output.weight))
             {
-                target.narrow(0, oldClasses, target.shape[0] - oldClasses).mul_(newRowScale);
+                using var scale = newRowScale.ToScalar();
+                target.narrow(0, oldClasses, target.shape[0] - oldClasses).mul_(scale);
                 target.narrow(0, 0, oldClasses).copy_(from);
             }
             else if (ReferenceEquals(target, output.bias))
             {
-                target.narrow(0, oldClasses, target.shape[0] - oldClasses).fill_(from.min().item<float>());
+                using var lowest = from.min().item<float>().ToScalar();
+                target.narrow(0, oldClasses, target.shape[0] - oldClasses).fill_(lowest);
                 target.narrow(0, 0, oldClasses).copy_(from);
             }
             else

@@ -1,0 +1,99 @@
+using HandLine.Features;
+using HandLine.Model;
+
+namespace HandLine.Tests.Model;
+
+/// <summary>
+/// A TorchSharp <c>Scalar</c> made implicitly from a C# number (<c>tensor * 3</c>, <c>arange(n)</c>) owns a native
+/// c10::Scalar that only its finaliser frees. Once its handle has been passed to libtorch nothing keeps the managed
+/// object alive, so a garbage collection started by another thread during the native call can free the scalar
+/// while libtorch reads it: "Unknown scalar type", or a silently wrong value. These tests run many small forward
+/// passes on several threads while another thread forces collections, and require every output to be exactly
+/// the one computed alone.
+/// </summary>
+public sealed class ScalarLifetimeStressTests
+{
+    private static readonly FeatureConfig Pixels = new(LineHeight: 8, FrameStride: 3);
+
+    [Fact]
+    public void ForwardPassesStayExactWhileCollectionsRunOnAnotherThread()
+    {
+        using var model = LineModel.Create(CharacterSet.FromString("ab"), Pixels,
+            new NetworkConfig(Hidden: 4, Layers: 1, Convolution: true), seed: 3);
+        var lines = Enumerable.Range(0, 4).Select(i => ModelFileTests.RandomFeatures(2 + i, Pixels.FrameDimension, i)).ToArray();
+        var expected = lines.Select(l => model.Run(l).LogProbs).ToArray();
+
+        var failures = Stress(threads: 3, passesPerThread: 1500, pass: (thread, i) =>
+        {
+            var k = (thread + i) % lines.Length;
+            var got = model.Run(lines[k]).LogProbs;
+            return got.AsSpan().SequenceEqual(expected[k]) ? null : $"line {k} read differently on pass {i}";
+        });
+        Assert.Empty(failures);
+    }
+
+    [Fact]
+    public void TrainingStepsOnSeveralThreadsMatchTheSameStepsRunAlone()
+    {
+        // Each thread trains its own copy of one network on the same lines; the optimiser and the loss must come
+        // out as they do when nothing else runs, collections or not.
+        var lines = HandLine.Tests.Training.TrainerTests.PatternLines(8, seed: 2);
+        float[] Train()
+        {
+            using var model = LineModel.Create(CharacterSet.FromString("ab"), new FeatureConfig(LineHeight: 8, FrameStride: 1),
+                new NetworkConfig(Hidden: 6, Layers: 1, Dropout: 0, Convolution: true), seed: 3);
+            using var adam = new HandLine.Training.AdamOptimiser(model.Network.parameters(), 0.01);
+            var options = new HandLine.Training.TrainingOptions { Seed = 5 };
+            for (var step = 0; step < 30; step++)
+                HandLine.Training.Trainer.Step(model.Network, adam, lines, options, epoch: 0, index: step);
+            return model.Network.parameters().SelectMany(p => p.data<float>().ToArray()).ToArray();
+        }
+        var expected = Train();
+        var failures = Stress(threads: 3, passesPerThread: 4, pass: (thread, i) =>
+        {
+            var got = Train();
+            for (var k = 0; k < got.Length; k++)
+                if (Math.Abs(got[k] - expected[k]) > 1e-4f) return $"weight {k} trained to {got[k]}, alone {expected[k]}";
+            return null;
+        });
+        Assert.Empty(failures);
+    }
+
+    /// <summary>
+    /// Runs <paramref name="pass"/> on several threads while one more thread collects garbage and runs finalisers
+    /// without pause; returns every failure (an exception or a message) seen.
+    /// </summary>
+    internal static IReadOnlyList<string> Stress(int threads, int passesPerThread, Func<int, int, string?> pass)
+    {
+        var failures = new System.Collections.Concurrent.ConcurrentQueue<string>();
+        using var done = new CancellationTokenSource();
+        var collector = new Thread(() =>
+        {
+            while (!done.IsCancellationRequested)
+            {
+                GC.Collect();
+                GC.WaitForPendingFinalizers();
+            }
+        }) { IsBackground = true };
+        collector.Start();
+        var workers = Enumerable.Range(0, threads).Select(t => new Thread(() =>
+        {
+            for (var i = 0; i < passesPerThread && failures.Count < 5; i++)
+            {
+                try
+                {
+                    if (pass(t, i) is { } message) failures.Enqueue(message);
+                }
+                catch (Exception e)
+                {
+                    failures.Enqueue($"thread {t} pass {i}: {e.GetType().Name}: {e.Message.Split('\n')[0]}");
+                }
+            }
+        })).ToArray();
+        foreach (var w in workers) w.Start();
+        foreach (var w in workers) w.Join();
+        done.Cancel();
+        collector.Join();
+        return failures.ToArray();
+    }
+}
