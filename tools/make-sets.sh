@@ -3,8 +3,10 @@
 # fetches the fonts and digits, splits the fonts into training and held-out styles, and renders the validation
 # and test sets (about a minute), then the training sets a recipe names. Idempotent: existing sets are kept.
 # Usage: tools/make-sets.sh [NAME:LINES:SEED]... (from any folder; works in the checkout's .cache). Each argument
-# is a training set: LINES ledger and register phrases in the training fonts, or, for names starting "mnist",
-# lines of real MNIST digits (training split, samples 0-499) with separators in the training fonts.
+# is a training set: LINES ledger and register phrases in the training fonts; for names starting "mixed", the
+# text mixture (synth --words with Debian's British English word list: phrases under half, the rest words,
+# capitals, random characters, dates and amounts); for names starting "mnist", lines of real MNIST digits
+# (training split, samples 0-499) with separators in the training fonts.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 work=.cache
@@ -12,6 +14,11 @@ hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
 
 bash tools/fetch-fonts.sh "$work/fonts"
 bash tools/fetch-mnist.sh "$work/mnist"
+# The general word list behind the "mixed" sets (Debian package wbritish).
+words=/usr/share/dict/british-english
+if [ ! -s "$words" ]; then
+  apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq wbritish >/dev/null
+fi
 dotnet build src/HandLine.Cli -c Release -v q
 
 # Styles kept out of training: validation CER is measured on hands the model never saw.
@@ -40,7 +47,8 @@ s=$work/synth
 
 for set in "$@"; do
   IFS=: read -r name lines seed <<< "$set"
-  digits=()
-  [[ "$name" == mnist* ]] && digits=(--mnist "$work/mnist" --mnist-split Training)
-  [ -s "$s/$name/lines.tsv" ] || hl synth --fonts "$work/fonts/train" "${digits[@]}" --count "$lines" --seed "$seed" --out "$s/$name"
+  extra=()
+  [[ "$name" == mnist* ]] && extra=(--mnist "$work/mnist" --mnist-split Training)
+  [[ "$name" == mixed* ]] && extra=(--words "$words")
+  [ -s "$s/$name/lines.tsv" ] || hl synth --fonts "$work/fonts/train" "${extra[@]}" --count "$lines" --seed "$seed" --out "$s/$name"
 done

@@ -1,5 +1,6 @@
 using System.CommandLine;
 using System.Globalization;
+using HandLine.Model;
 using HandLine.Scoring;
 using HandLine.Synthesis;
 
@@ -16,6 +17,11 @@ internal static class SynthCommand
         var count = new Option<int>("--count") { Description = "Lines to render", Required = true };
         var outDir = new Option<string>("--out") { Description = "Folder for lines/*.png, lines.tsv and degradations.jsonl", Required = true };
         var text = new Option<string?>("--text") { Description = "UTF-8 file of lines to render instead of generated ledger text" };
+        var words = new Option<string?>("--words")
+        {
+            Description = "UTF-8 word list, one word a line (e.g. /usr/share/dict/british-english): generated ledger phrases become 35 % " +
+                          "of lines, the rest words in random order (also in capitals or capitalised), random characters, dates and amounts",
+        };
         var seed = new Option<int>("--seed") { DefaultValueFactory = _ => 1, Description = "Seed: same seed, same files" };
         var clean = new Option<bool>("--clean") { Description = "Render without degradations" };
         var mnist = new Option<string?>("--mnist")
@@ -29,11 +35,20 @@ internal static class SynthCommand
         };
         var command = new Command("synth", "Render synthetic handwriting-style text lines for training")
         {
-            fonts, count, outDir, text, seed, clean, mnist, split,
+            fonts, count, outDir, text, words, seed, clean, mnist, split,
         };
         command.SetAction(parse => CommandRunner.Guard(() =>
         {
             if (parse.GetValue(count) < 1) throw new ArgumentException("--count must be at least 1");
+            var wordsPath = parse.GetValue(words);
+            if (wordsPath is not null && (parse.GetValue(text) is not null || parse.GetValue(mnist) is not null))
+                throw new ArgumentException("--words cannot be combined with --text or --mnist, which bring their own text");
+            IReadOnlyList<string>? wordList = null;
+            if (wordsPath is not null)
+            {
+                wordList = WordList.Load(wordsPath, CharacterSet.Default);
+                Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture, $"word list: {wordList.Count:N0} words from {wordsPath}"));
+            }
             using var catalog = FontCatalog.Load(parse.GetValue(fonts)!);
             foreach (var e in catalog.Errors) Console.Error.WriteLine($"skipped font: {e.Message}");
             var textPath = parse.GetValue(text);
@@ -52,8 +67,10 @@ internal static class SynthCommand
             var mnistPath = parse.GetValue(mnist);
             var digits = mnistPath is null ? null : new DigitSource(MnistDigits.Load(mnistPath), parse.GetValue(split));
             var summary = LineSynthesiser.Generate(new SynthesisRequest(catalog, parse.GetValue(count), parse.GetValue(outDir)!,
-                parse.GetValue(seed), texts, parse.GetValue(clean) ? DegradationRanges.None : null, digits), Console.Error);
+                parse.GetValue(seed), texts, parse.GetValue(clean) ? DegradationRanges.None : null, digits, wordList), Console.Error);
             Console.Error.WriteLine($"{summary.LinesWritten} lines written to {summary.ManifestPath}, {summary.LinesSkipped} skipped, {summary.FontsUsed.Count} fonts used");
+            Console.Error.WriteLine("text sources: " + string.Join(", ", summary.SourceCounts.Select(kv =>
+                string.Create(CultureInfo.InvariantCulture, $"{kv.Key} {kv.Value} ({100.0 * kv.Value / Math.Max(1, summary.LinesWritten):F1} %)"))));
             foreach (var s in summary.Skipped.Take(10)) Console.Error.WriteLine($"  skipped line {s.Index}: {s.Reason}");
             Console.Error.WriteLine("symbol counts: " + string.Join(" ", summary.SymbolCounts.OrderBy(kv => kv.Value)
                 .Select(kv => string.Create(CultureInfo.InvariantCulture, $"'{kv.Key}':{kv.Value}"))));

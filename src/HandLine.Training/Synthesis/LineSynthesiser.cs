@@ -10,7 +10,8 @@ namespace HandLine.Synthesis;
 
 /// <summary>
 /// Writes a training set of synthetic lines: <c>lines/NNNNNN.png</c>, the manifest <c>lines.tsv</c>
-/// (relative path, tab, transcript) and <c>degradations.jsonl</c>. The same request and seed give
+/// (relative path, tab, transcript) and <c>degradations.jsonl</c> (per line: path, font, text, the text's source
+/// and the degradation values). The same request and seed give
 /// byte-identical files: all random choices are drawn in line order before the parallel rendering.
 /// </summary>
 public static class LineSynthesiser
@@ -27,10 +28,16 @@ public static class LineSynthesiser
         Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping,
     };
 
-    private sealed record Plan(int Index, string RelativePath, string Text, FontFace Font, Degradation Degradation, int[]? Mnist);
+    /// <summary>The source recorded for lines from the user's text file.</summary>
+    public const string TextFileSource = "text";
+
+    /// <summary>The source recorded for MNIST digit lines.</summary>
+    public const string DigitsSource = "digits";
+
+    private sealed record Plan(int Index, string RelativePath, string Text, string Source, FontFace Font, Degradation Degradation, int[]? Mnist);
 
     // Mnist: the sample index of each digit, in text order (digit lines only).
-    private sealed record DegradationRow(string Path, string Font, string Text, Degradation Degradation,
+    private sealed record DegradationRow(string Path, string Font, string Text, string Source, Degradation Degradation,
         [property: System.Text.Json.Serialization.JsonIgnore(Condition = System.Text.Json.Serialization.JsonIgnoreCondition.WhenWritingNull)] int[]? Mnist);
 
     public static SynthesisSummary Generate(SynthesisRequest request, TextWriter? log)
@@ -44,6 +51,10 @@ public static class LineSynthesiser
         var userTexts = request.Texts?.ToList();
         if (userTexts is { Count: 0 })
             throw new ArgumentException("The text list is empty.", nameof(request));
+        if (request.Words is not null && (userTexts is not null || request.Digits is not null))
+            throw new ArgumentException("A word list cannot be combined with a text list or digit lines.", nameof(request));
+        if (request.Words is { Count: 0 })
+            throw new ArgumentException("The word list is empty.", nameof(request));
         var ranges = request.Ranges ?? new DegradationRanges();
 
         var outDir = Path.GetFullPath(request.OutDir);
@@ -52,12 +63,16 @@ public static class LineSynthesiser
 
         var rng = new Random(request.Seed);
         var generator = new PhraseGenerator(rng.Next());
+        // Drawn only with a word list, so that sets made without one stay byte-identical to earlier versions.
+        var mixture = request.Words is null ? null : new TextMixture(rng.Next(), request.Words, request.Mixture);
         var plans = new List<Plan>(request.Count);
         var skipped = new List<SkippedLine>();
         for (var i = 0; i < request.Count; i++)
         {
-            var raw = userTexts is not null ? userTexts[i % userTexts.Count]
-                : request.Digits is not null ? DigitLineText.Next(rng) : generator.Next();
+            var (raw, source) = userTexts is not null ? (userTexts[i % userTexts.Count], TextFileSource)
+                : request.Digits is not null ? (DigitLineText.Next(rng), DigitsSource)
+                : mixture is not null ? Mixed(mixture.Next())
+                : (generator.Next(), MixedText.NameOf(TextSource.Phrase));
             var text = TextUnits.ToNfc(raw ?? "").Trim();
             // Digit lines need the font only for what is not a digit.
             var font = PickFont(text, request.Fonts, rng, out var reason, request.Digits is null ? text : WithoutDigits(text));
@@ -69,7 +84,7 @@ public static class LineSynthesiser
             }
             var path = string.Create(CultureInfo.InvariantCulture, $"{ImagesFolder}/{plans.Count:D6}.png");
             var degradation = Degradation.Sample(rng, ranges);
-            plans.Add(new Plan(i, path, text, font, degradation, request.Digits is null ? null : PickSamples(text, request.Digits, rng)));
+            plans.Add(new Plan(i, path, text, source, font, degradation, request.Digits is null ? null : PickSamples(text, request.Digits, rng)));
         }
 
         for (var start = 0; start < plans.Count; start += BatchSize)
@@ -88,7 +103,7 @@ public static class LineSynthesiser
         foreach (var p in plans)
         {
             manifest.Append(p.RelativePath).Append('\t').Append(p.Text).Append('\n');
-            jsonl.Append(JsonSerializer.Serialize(new DegradationRow(p.RelativePath, p.Font.Name, p.Text, p.Degradation, p.Mnist), Json))
+            jsonl.Append(JsonSerializer.Serialize(new DegradationRow(p.RelativePath, p.Font.Name, p.Text, p.Source, p.Degradation, p.Mnist), Json))
                 .Append('\n');
         }
         var manifestPath = Path.Combine(outDir, ManifestName);
@@ -100,13 +115,18 @@ public static class LineSynthesiser
         var fontsUsed = new SortedDictionary<string, int>(StringComparer.Ordinal);
         foreach (var p in plans)
             fontsUsed[p.Font.Name] = fontsUsed.TryGetValue(p.Font.Name, out var n) ? n + 1 : 1;
+        var sources = new SortedDictionary<string, int>(StringComparer.Ordinal);
+        foreach (var p in plans)
+            sources[p.Source] = sources.TryGetValue(p.Source, out var n) ? n + 1 : 1;
         var summary = new SynthesisSummary(
             plans.Count, skipped, PhraseGenerator.CountSymbols(plans.Select(p => p.Text)), fontsUsed,
-            manifestPath, degradationsPath);
+            manifestPath, degradationsPath, sources);
         log?.WriteLine($"synthesis: wrote {summary.LinesWritten} lines, skipped {summary.LinesSkipped}, " +
                        $"{fontsUsed.Count} fonts used");
         return summary;
     }
+
+    private static (string Text, string Source) Mixed(MixedText line) => (line.Text, line.SourceName);
 
     /// <summary>
     /// Samples degradations and renders one line in memory with a random font that has every glyph

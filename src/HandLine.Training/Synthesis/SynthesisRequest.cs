@@ -5,7 +5,10 @@ namespace HandLine.Synthesis;
 /// when <paramref name="Count"/> is larger); otherwise from <see cref="PhraseGenerator"/>.
 /// <paramref name="Ranges"/> defaults to <c>new DegradationRanges()</c>. With <paramref name="Digits"/> every
 /// digit is a real handwritten MNIST sample from the given split and generated text comes from
-/// <see cref="DigitLineText"/>.
+/// <see cref="DigitLineText"/>. With <paramref name="Words"/> (see <see cref="WordList.Load"/>) generated text comes
+/// from a <see cref="TextMixture"/> with <paramref name="Mixture"/> (default <c>new TextMixtureOptions()</c>)
+/// instead of the phrase generator alone; it cannot be combined with <paramref name="Texts"/> or
+/// <paramref name="Digits"/>, which bring their own text.
 /// </summary>
 public sealed record SynthesisRequest(
     FontCatalog Fonts,
@@ -14,7 +17,9 @@ public sealed record SynthesisRequest(
     int Seed,
     IEnumerable<string>? Texts = null,
     DegradationRanges? Ranges = null,
-    DigitSource? Digits = null);
+    DigitSource? Digits = null,
+    IReadOnlyList<string>? Words = null,
+    TextMixtureOptions? Mixture = null);
 
 /// <summary>Where digit lines take their digits from, and which samples they may use.</summary>
 public sealed record DigitSource(MnistDigits Digits, MnistSplit Split);

@@ -48,6 +48,7 @@ public sealed class LineSynthesiserTests : IDisposable
             using var row = JsonDocument.Parse(jsonl[i]);
             Assert.Equal(path, row.RootElement.GetProperty("path").GetString());
             Assert.Equal(text, row.RootElement.GetProperty("text").GetString());
+            Assert.Equal("phrase", row.RootElement.GetProperty("source").GetString());
             var font = row.RootElement.GetProperty("font").GetString();
             Assert.Contains(font, Catalog.Fonts.Select(f => f.Name));
             var d = row.RootElement.GetProperty("degradation");
@@ -121,6 +122,31 @@ public sealed class LineSynthesiserTests : IDisposable
     }
 
     [Fact]
+    public void A_word_list_mixes_the_text_and_logs_each_line_source()
+    {
+        var words = TestWords.Words;
+        var summary = LineSynthesiser.Generate(
+            new SynthesisRequest(Catalog, 40, _dir, 6, Ranges: DegradationRanges.None, Words: words), null);
+
+        var rows = File.ReadAllLines(Path.Combine(_dir, LineSynthesiser.DegradationsName))
+            .Select(l => JsonDocument.Parse(l).RootElement)
+            .Select(r => (Text: r.GetProperty("text").GetString()!, Source: r.GetProperty("source").GetString()!))
+            .ToList();
+        Assert.Equal(ReadManifest(_dir).Select(r => r.Text), rows.Select(r => r.Text));
+        Assert.All(rows, r => Assert.True(CharacterSet.Default.CanEncode(r.Text), r.Text));
+        var names = Enum.GetValues<TextSource>().Select(MixedText.NameOf).ToHashSet();
+        Assert.All(rows, r => Assert.Contains(r.Source, names));
+        Assert.True(rows.Select(r => r.Source).Distinct().Count() >= 4, "40 lines should come from several sources");
+        Assert.Equal(rows.GroupBy(r => r.Source).ToDictionary(g => g.Key, g => g.Count()), summary.SourceCounts);
+
+        // Without the word list the same seed gives the phrase lines of before: the mixture draws its seed last.
+        var plain = Path.Combine(_dir, "plain");
+        var phrases = LineSynthesiser.Generate(new SynthesisRequest(Catalog, 40, plain, 6, Ranges: DegradationRanges.None), null);
+        Assert.Equal(new Dictionary<string, int> { ["phrase"] = 40 }, phrases.SourceCounts);
+        Assert.NotEqual(ReadManifest(plain).Select(r => r.Text), rows.Select(r => r.Text));
+    }
+
+    [Fact]
     public void Rejects_bad_requests()
     {
         Assert.Throws<ArgumentOutOfRangeException>(() =>
@@ -129,6 +155,10 @@ public sealed class LineSynthesiserTests : IDisposable
             LineSynthesiser.Generate(new SynthesisRequest(Catalog, 1, _dir, 1, Array.Empty<string>()), null));
         Assert.Throws<ArgumentException>(() =>
             LineSynthesiser.Generate(new SynthesisRequest(Catalog, 1, " ", 1), null));
+        Assert.Throws<ArgumentException>(() =>
+            LineSynthesiser.Generate(new SynthesisRequest(Catalog, 1, _dir, 1, ["Pd"], Words: TestWords.Words), null));
+        Assert.Throws<ArgumentException>(() =>
+            LineSynthesiser.Generate(new SynthesisRequest(Catalog, 1, _dir, 1, Words: Array.Empty<string>()), null));
     }
 
     [Fact]
