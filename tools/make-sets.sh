@@ -41,7 +41,9 @@ s=$work/synth
 [ -s "$s/test-fonts/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 14 --out "$s/test-fonts"
 [ -s "$s/test-mnist/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 23 --out "$s/test-mnist"
 # One validation manifest for both kinds of line (paths must stay inside the manifest's folder).
+# Both sets carry the same #columns header (path, text, family, group); it is kept once, before the entries.
 { echo "# validation: 1,000 font lines (held-out fonts) + 1,000 MNIST digit lines (samples 500-559)"
+  grep -m1 '^#columns' "$s/valid/lines.tsv" || true
   grep -v '^#' "$s/valid/lines.tsv" | sed 's#^#valid/#'
   grep -v '^#' "$s/mnist-valid/lines.tsv" | sed 's#^#mnist-valid/#'; } > "$s/valid-mixed.tsv"
 

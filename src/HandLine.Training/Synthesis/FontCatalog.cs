@@ -20,12 +20,19 @@ public sealed class FontCatalog : IDisposable
 
     public IReadOnlyList<InputException> Errors { get; }
 
-    /// <summary>Loads font files and every .ttf/.otf/.woff below the given folders (recursively).</summary>
+    /// <summary>
+    /// Loads font files and every .ttf/.otf/.woff below the given folders (recursively). Fonts are expected
+    /// at <c>ROOT/SPLIT/GROUP/FAMILY/file</c>: a font found two or more folders below a given folder takes
+    /// its family from its parent folder's name and its group from its grandparent's. A font directly in a
+    /// given folder or one folder below it, or a font file given by name, has no such layout to read: its
+    /// family is its file name without extension and its group <see cref="FontFace.Ungrouped"/>.
+    /// </summary>
     public static FontCatalog Load(IEnumerable<string> paths)
     {
         ArgumentNullException.ThrowIfNull(paths);
         var errors = new List<InputException>();
-        var files = new SortedSet<string>(StringComparer.Ordinal);
+        // File -> (family, group) read from its folders, or nulls; the first given path that reaches a file decides.
+        var files = new SortedDictionary<string, (string? Family, string? Group)>(StringComparer.Ordinal);
         foreach (var raw in paths)
         {
             ArgumentException.ThrowIfNullOrWhiteSpace(raw, nameof(paths));
@@ -34,11 +41,11 @@ public sealed class FontCatalog : IDisposable
             {
                 foreach (var f in Directory.EnumerateFiles(full, "*", SearchOption.AllDirectories))
                     if (IsFontFile(f))
-                        files.Add(f);
+                        files.TryAdd(f, StyleFolders(full, f));
             }
             else if (File.Exists(full))
             {
-                files.Add(full);
+                files.TryAdd(full, (null, null));
             }
             else
             {
@@ -47,19 +54,29 @@ public sealed class FontCatalog : IDisposable
         }
 
         var fonts = new List<FontFace>();
-        foreach (var file in files)
+        foreach (var (file, style) in files)
         {
-            var face = TryLoad(file, errors);
+            var face = TryLoad(file, style.Family, style.Group, errors);
             if (face is not null)
                 fonts.Add(face);
         }
         return new FontCatalog(fonts, errors);
     }
 
+    /// <summary>Parent and grandparent folder names when the file is at least two folders below the root.</summary>
+    private static (string? Family, string? Group) StyleFolders(string root, string file)
+    {
+        var folders = System.IO.Path.GetRelativePath(root, System.IO.Path.GetDirectoryName(file)!)
+            .Split(System.IO.Path.DirectorySeparatorChar, StringSplitOptions.RemoveEmptyEntries)
+            .Where(s => s != ".")
+            .ToArray();
+        return folders.Length >= 2 ? (folders[^1], folders[^2]) : (null, null);
+    }
+
     private static bool IsFontFile(string path) =>
         Extensions.Contains(System.IO.Path.GetExtension(path).ToLowerInvariant());
 
-    private static FontFace? TryLoad(string file, List<InputException> errors)
+    private static FontFace? TryLoad(string file, string? family, string? group, List<InputException> errors)
     {
         if (!IsFontFile(file))
         {
@@ -81,7 +98,7 @@ public sealed class FontCatalog : IDisposable
             errors.Add(new InputException(file, "font", "not a font the renderer can load"));
             return null;
         }
-        var face = new FontFace(file, typeface);
+        var face = new FontFace(file, typeface, family, group);
         if (face.CoveredDefaultCodePoints.Count == 0)
         {
             face.Dispose();

@@ -14,10 +14,17 @@ public sealed class FontFace : IDisposable
     private readonly SKTypeface _typeface;
     private readonly HashSet<int> _coveredDefault;
 
-    internal FontFace(string path, SKTypeface typeface)
+    /// <summary>The group of a font that is not laid out in group and family folders.</summary>
+    public const string Ungrouped = "ungrouped";
+
+    /// <param name="family">Style family; null for the file name without extension.</param>
+    /// <param name="group">Style group; null for <see cref="Ungrouped"/>.</param>
+    internal FontFace(string path, SKTypeface typeface, string? family = null, string? group = null)
     {
         Path = path;
         Name = System.IO.Path.GetFileName(path);
+        Family = family ?? System.IO.Path.GetFileNameWithoutExtension(path);
+        Group = group ?? Ungrouped;
         _typeface = typeface;
         // Computed once: line synthesis asks Covers for every line and every font.
         _coveredDefault = new HashSet<int>();
@@ -32,6 +39,15 @@ public sealed class FontFace : IDisposable
 
     /// <summary>File name, e.g. "Humor-Sans.ttf".</summary>
     public string Name { get; }
+
+    /// <summary>
+    /// The style family the font belongs to, for scoring per family: its folder's name when fonts are laid out
+    /// as <c>GROUP/FAMILY/file</c> (see <see cref="FontCatalog.Load"/>), otherwise the file name without extension.
+    /// </summary>
+    public string Family { get; }
+
+    /// <summary>The style group of the family (its parent folder's name), or <see cref="Ungrouped"/>.</summary>
+    public string Group { get; }
 
     /// <summary>Full path the font was loaded from.</summary>
     public string Path { get; }

@@ -10,8 +10,9 @@ namespace HandLine.Synthesis;
 
 /// <summary>
 /// Writes a training set of synthetic lines: <c>lines/NNNNNN.png</c>, the manifest <c>lines.tsv</c>
-/// (relative path, tab, transcript) and <c>degradations.jsonl</c> (per line: path, font, text, the text's source
-/// and the degradation values). The same request and seed give
+/// (relative path, transcript, and the extra columns <c>family</c> and <c>group</c> of the style each line was
+/// drawn in, so a set can be scored per style) and <c>degradations.jsonl</c> (per line: path, font, text, the
+/// text's source and the degradation values). The same request and seed give
 /// byte-identical files: all random choices are drawn in line order before the parallel rendering.
 /// </summary>
 public static class LineSynthesiser
@@ -19,6 +20,18 @@ public static class LineSynthesiser
     public const string ImagesFolder = "lines";
     public const string ManifestName = "lines.tsv";
     public const string DegradationsName = "degradations.jsonl";
+
+    /// <summary>Manifest column: the line's style family (<see cref="FontFace.Family"/>, or <see cref="DigitFamily"/>).</summary>
+    public const string FamilyColumn = "family";
+
+    /// <summary>Manifest column: the line's style group (<see cref="FontFace.Group"/>, or <see cref="DigitGroup"/>).</summary>
+    public const string GroupColumn = "group";
+
+    /// <summary>Family of MNIST digit lines: the handwriting is the digits', whatever font draws the separators.</summary>
+    public const string DigitFamily = "mnist";
+
+    /// <summary>Group of MNIST digit lines.</summary>
+    public const string DigitGroup = "digits";
     private const int BatchSize = 256;
 
     private static readonly JsonSerializerOptions Json = new()
@@ -95,21 +108,20 @@ public static class LineSynthesiser
             log?.WriteLine($"synthesis: {end}/{plans.Count} lines drawn");
         }
 
-        var manifest = new StringBuilder();
-        manifest.Append(CultureInfo.InvariantCulture,
-            $"# synthetic lines: seed {request.Seed}, {plans.Count} lines, {request.Fonts.Fonts.Count} fonts")
-            .Append(request.Digits is null ? "" : $", MNIST digits ({request.Digits.Split} split)").Append('\n');
+        var comment = string.Create(CultureInfo.InvariantCulture,
+            $"synthetic lines: seed {request.Seed}, {plans.Count} lines, {request.Fonts.Fonts.Count} fonts")
+            + (request.Digits is null ? "" : $", MNIST digits ({request.Digits.Split} split)");
         var jsonl = new StringBuilder();
         foreach (var p in plans)
         {
-            manifest.Append(p.RelativePath).Append('\t').Append(p.Text).Append('\n');
             jsonl.Append(JsonSerializer.Serialize(new DegradationRow(p.RelativePath, p.Font.Name, p.Text, p.Source, p.Degradation, p.Mnist), Json))
                 .Append('\n');
         }
         var manifestPath = Path.Combine(outDir, ManifestName);
         var degradationsPath = Path.Combine(outDir, DegradationsName);
         var utf8 = new UTF8Encoding(encoderShouldEmitUTF8Identifier: false);
-        WriteAtomically(manifestPath, utf8.GetBytes(manifest.ToString()));
+        Manifest.Write(manifestPath, [FamilyColumn, GroupColumn],
+            plans.Select(p => (p.RelativePath, p.Text, Style(p.Font, request.Digits is not null))), comment);
         WriteAtomically(degradationsPath, utf8.GetBytes(jsonl.ToString()));
 
         var fontsUsed = new SortedDictionary<string, int>(StringComparer.Ordinal);
@@ -177,6 +189,10 @@ public static class LineSynthesiser
         reason = null;
         return covering[rng.Next(covering.Count)];
     }
+
+    /// <summary>The family and group values of a line, in column order.</summary>
+    private static IReadOnlyList<string> Style(FontFace font, bool digits) =>
+        digits ? [DigitFamily, DigitGroup] : [font.Family, font.Group];
 
     private static string WithoutDigits(string text) => string.Concat(text.Where(c => c is < '0' or > '9'));
 

@@ -52,6 +52,13 @@ public sealed class LineSample
 
     public string Id { get; }
     public string Text { get; }
+
+    /// <summary>The line's style family from its manifest's <c>family</c> column; null without one.</summary>
+    public string? Family { get; init; }
+
+    /// <summary>The line's style group from its manifest's <c>group</c> column; null without one.</summary>
+    public string? Group { get; init; }
+
     public int[] Target { get; }
     public FeatureConfig Config { get; }
     public int Width { get; }

@@ -122,16 +122,19 @@ public sealed class Trainer
                 break;
             }
 
-            var cer = Validate(model, valid);
+            var validation = Validation.Run(model, valid);
+            var cer = validation.Cer;
             var validLoss = MeanLoss(model, valid);
             var meanLoss = state.EpochLossSum / Math.Max(1, batches.Count);
             var beatsSaved = cer < state.SavedOrBestCer; // before the state update below
             state = AfterEpoch(state, cer, validLoss, options) with { EpochLossSum = 0, Minutes = Minutes() };
             var lr = state.LearningRate;
             SetLearningRate(optimizer, lr);
-            AppendLog(logPath, state, meanLoss, cer, validLoss, batchesPerEpoch);
+            AppendLog(logPath, state, meanLoss, cer, validLoss, batchesPerEpoch, validation.WorstFamily);
             _progress.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"epoch {state.Epoch}/{options.Epochs}: mean loss {meanLoss:F3}, validation CER {cer:P2} loss {validLoss:F3}{(beatsSaved ? " (saved)" : "")}, step size {lr:G3}"));
+            if (validation.StylesLine() is { } styles)
+                _progress.WriteLine(styles);
             if (beatsSaved)
             {
                 bestId = model.Save(outPath, RecipeAt(recipe, state), Math.Round(cer, 5));
@@ -175,21 +178,7 @@ public sealed class Trainer
         recipe with { Epochs = s.Epoch, LinesSeen = s.LinesSeen, Minutes = Math.Round(s.Minutes, 1) };
 
     /// <summary>Validation CER with greedy decoding, over code points (the same measure as `score`).</summary>
-    public static double Validate(LineModel model, IReadOnlyList<LineSample> valid)
-    {
-        long errors = 0, chars = 0;
-        foreach (var chunk in valid.Chunk(32))
-        {
-            var posteriors = model.Run(chunk.Select(s => s.Features).ToArray());
-            for (var i = 0; i < chunk.Length; i++)
-            {
-                var hyp = GreedyDecoder.Decode(posteriors[i], model.Charset).Text;
-                errors += EditDistance.Align<int>(TextUnits.CodePoints(chunk[i].Text), TextUnits.CodePoints(hyp)).Distance;
-                chars += chunk[i].Target.Length;
-            }
-        }
-        return errors / (double)Math.Max(1, chars);
-    }
+    public static double Validate(LineModel model, IReadOnlyList<LineSample> valid) => Validation.Run(model, valid).Cer;
 
     /// <summary>Mean CTC loss per line over a set, without training (for reports and tests).</summary>
     public static double MeanLoss(LineModel model, IReadOnlyList<LineSample> lines)
@@ -327,12 +316,24 @@ public sealed class Trainer
         return "[" + new string('#', cells) + new string('.', 20 - cells) + "]";
     }
 
-    private static void AppendLog(string path, TrainingState s, double loss, double cer, double validLoss, int batchesPerEpoch)
+    private const string LogHeader = "epoch,lines_seen,minutes,mean_loss,valid_cer,learning_rate,batches_per_epoch,valid_loss";
+    private const string FamilyLogColumns = ",worst_family,worst_family_cer";
+
+    private static void AppendLog(string path, TrainingState s, double loss, double cer, double validLoss, int batchesPerEpoch, ScoreGroup? worstFamily)
     {
         var header = !File.Exists(path);
+        // A run resumed from a log written before the family columns existed keeps that log's shape.
+        var families = header || File.ReadLines(path).FirstOrDefault()?.EndsWith(FamilyLogColumns, StringComparison.Ordinal) == true;
         using var w = new StreamWriter(path, append: true);
-        if (header) w.WriteLine("epoch,lines_seen,minutes,mean_loss,valid_cer,learning_rate,batches_per_epoch,valid_loss");
-        w.WriteLine(string.Create(CultureInfo.InvariantCulture,
-            $"{s.Epoch},{s.LinesSeen},{s.Minutes:F2},{loss:F4},{cer:F5},{s.LearningRate:G4},{batchesPerEpoch},{validLoss:F4}"));
+        if (header) w.WriteLine(LogHeader + FamilyLogColumns);
+        var row = string.Create(CultureInfo.InvariantCulture,
+            $"{s.Epoch},{s.LinesSeen},{s.Minutes:F2},{loss:F4},{cer:F5},{s.LearningRate:G4},{batchesPerEpoch},{validLoss:F4}");
+        if (families)
+            row += worstFamily is null ? ",," : string.Create(CultureInfo.InvariantCulture, $",{CsvField(worstFamily.Value)},{worstFamily.Cer:F5}");
+        w.WriteLine(row);
     }
+
+    /// <summary>A CSV field, quoted when it holds a comma, quote or line break (RFC 4180).</summary>
+    private static string CsvField(string value) =>
+        value.AsSpan().IndexOfAny(",\"\r\n") < 0 ? value : "\"" + value.Replace("\"", "\"\"") + "\"";
 }

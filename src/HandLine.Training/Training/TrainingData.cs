@@ -11,6 +11,12 @@ namespace HandLine.Training;
 /// </summary>
 public static class TrainingData
 {
+    /// <summary>Manifest column naming a line's style family (written by synthesis).</summary>
+    public const string FamilyColumn = Synthesis.LineSynthesiser.FamilyColumn;
+
+    /// <summary>Manifest column naming a line's style group (written by synthesis).</summary>
+    public const string GroupColumn = Synthesis.LineSynthesiser.GroupColumn;
+
     /// <param name="keepPrepared">Keep each manifest's prepared lines in a file beside it and reuse them
     /// (see <see cref="PreparedLines"/>).</param>
     /// <param name="note">Where messages about kept prepared lines go.</param>
@@ -37,7 +43,12 @@ public static class TrainingData
                 else if (lines[i].Failure is { } failure)
                     errors.Add(failure);
                 else
-                    samples.Add(new LineSample(e.RelativePath, e.Text, lines[i].Ink!, lines[i].Width, features, charset.Encode(e.Text)));
+                    samples.Add(new LineSample(e.RelativePath, e.Text, lines[i].Ink!, lines[i].Width, features, charset.Encode(e.Text))
+                    {
+                        // Validation reports CER per style when the manifest says which style each line is in.
+                        Family = e.Column(FamilyColumn),
+                        Group = e.Column(GroupColumn),
+                    });
             }
         }
         return (samples, errors);

@@ -1,4 +1,10 @@
 namespace HandLine.Scoring;
 
-/// <summary>The usable lines of a manifest and one error per unusable line.</summary>
-public sealed record ManifestReadResult(IReadOnlyList<ManifestEntry> Entries, IReadOnlyList<InputException> Errors);
+/// <summary>
+/// The usable lines of a manifest and one error per unusable line. <see cref="Columns"/> are the names of
+/// the extra columns its <c>#columns</c> header declares, in file order (empty without a header).
+/// </summary>
+public sealed record ManifestReadResult(IReadOnlyList<ManifestEntry> Entries, IReadOnlyList<InputException> Errors)
+{
+    public IReadOnlyList<string> Columns { get; init; } = [];
+}

@@ -54,4 +54,25 @@ public sealed class ScoreReport
     public int WordInsertions => WordCounts.Insertions;
 
     public int MissingLines { get; }
+
+    /// <summary>
+    /// The same lines split by one or more keys (empty unless asked for). Each breakdown must cover exactly
+    /// these lines, so its groups add up to this report's counts.
+    /// </summary>
+    /// <exception cref="ArgumentException">A breakdown's totals differ from this report's.</exception>
+    public IReadOnlyList<ScoreBreakdown> Breakdowns
+    {
+        get;
+        init
+        {
+            ArgumentNullException.ThrowIfNull(value);
+            foreach (var b in value)
+            {
+                ArgumentNullException.ThrowIfNull(b, nameof(value));
+                if (b.Lines != Lines || b.CharCounts != CharCounts || b.WordCounts != WordCounts)
+                    throw new ArgumentException($"The breakdown by '{b.Key}' does not cover the report's lines.", nameof(value));
+            }
+            field = value.ToArray();
+        }
+    } = [];
 }

@@ -28,6 +28,8 @@ public static class ScoreReportWriter
         writer.WriteLine(string.Format(inv, "WER   {0,7:0.00} %  ({1} errors: {2} substitutions, {3} deletions, {4} insertions; {5} words)",
             report.Wer * 100, report.WordCounts.Distance, report.WordSubstitutions, report.WordDeletions, report.WordInsertions, report.Words));
         writer.WriteLine(string.Format(inv, "Lines {0} ({1} missing)", report.Lines, report.MissingLines));
+        foreach (var breakdown in report.Breakdowns)
+            WriteBreakdown(writer, breakdown);
         if (maxRows == 0 || report.Lines == 0)
             return;
 
@@ -50,8 +52,40 @@ public static class ScoreReportWriter
     }
 
     /// <summary>
+    /// One table per breakdown: each group's lines, reference characters, character errors, CER, words, word
+    /// errors and WER; then the pooled row (the ungrouped totals), the plain mean of the groups' rates, and
+    /// the worst group by CER.
+    /// </summary>
+    private static void WriteBreakdown(TextWriter writer, ScoreBreakdown breakdown)
+    {
+        var inv = CultureInfo.InvariantCulture;
+        const string pooled = "Pooled";
+        const string mean = "Mean of groups";
+        var width = Math.Clamp(breakdown.Groups.Select(g => GroupLabel(g.Value).Length).Append(mean.Length).Max(), 5, MaxIdWidth);
+        const string row = "{0}  {1,6}  {2,8}  {3,8}  {4,7:0.00}  {5,7}  {6,8}  {7,7:0.00}";
+        writer.WriteLine();
+        writer.WriteLine(string.Format(inv, "By {0} ({1} group(s))", breakdown.Key, breakdown.Groups.Count));
+        writer.WriteLine(string.Format(inv, "{0}  {1,6}  {2,8}  {3,8}  {4,7}  {5,7}  {6,8}  {7,7}",
+            "Group".PadRight(width), "Lines", "Chars", "Char err", "CER %", "Words", "Word err", "WER %"));
+        foreach (var g in breakdown.Groups)
+            writer.WriteLine(string.Format(inv, row, Cell(GroupLabel(g.Value), width).PadRight(width), g.Lines,
+                g.CharCounts.TruthLength, g.CharCounts.Distance, g.Cer * 100, g.WordCounts.TruthLength, g.WordCounts.Distance, g.Wer * 100));
+        writer.WriteLine(string.Format(inv, row, pooled.PadRight(width), breakdown.Lines,
+            breakdown.CharCounts.TruthLength, breakdown.CharCounts.Distance, breakdown.Cer * 100,
+            breakdown.WordCounts.TruthLength, breakdown.WordCounts.Distance, breakdown.Wer * 100));
+        writer.WriteLine(string.Format(inv, "{0}  {1,6}  {2,8}  {3,8}  {4,7:0.00}  {5,7}  {6,8}  {7,7:0.00}",
+            mean.PadRight(width), "", "", "", breakdown.MeanCer * 100, "", "", breakdown.MeanWer * 100));
+        if (breakdown.Worst is { } worst)
+            writer.WriteLine(string.Format(inv, "Worst {0}: {1} (CER {2:0.00} %, WER {3:0.00} %)",
+                breakdown.Key, Cell(GroupLabel(worst.Value), MaxIdWidth), worst.Cer * 100, worst.Wer * 100));
+    }
+
+    private static string GroupLabel(string value) => value.Length == 0 ? "(empty)" : value;
+
+    /// <summary>
     /// One JSON object with snake_case keys: totals (cer, wer, lines, chars, words, character and word
-    /// S/D/I, missing_lines) and a per_line array in input order. A missing hypothesis is null.
+    /// S/D/I, missing_lines) and a per_line array in input order. A missing hypothesis is null. A report
+    /// with breakdowns also has a "by" array: per key its groups, pooled counts, mean_cer, mean_wer and worst.
     /// </summary>
     public static string ToJson(ScoreReport report)
     {
@@ -78,6 +112,13 @@ public static class ScoreReportWriter
             json.WriteNumber("word_deletions", report.WordDeletions);
             json.WriteNumber("word_insertions", report.WordInsertions);
             json.WriteNumber("missing_lines", report.MissingLines);
+            if (report.Breakdowns.Count > 0)
+            {
+                json.WriteStartArray("by");
+                foreach (var breakdown in report.Breakdowns)
+                    WriteBreakdown(json, breakdown);
+                json.WriteEndArray();
+            }
             json.WriteStartArray("per_line");
             foreach (var line in report.PerLine)
             {
@@ -101,6 +142,51 @@ public static class ScoreReportWriter
             json.WriteEndObject();
         }
         return Encoding.UTF8.GetString(buffer.ToArray());
+    }
+
+    private static void WriteBreakdown(Utf8JsonWriter json, ScoreBreakdown breakdown)
+    {
+        json.WriteStartObject();
+        json.WriteString("key", breakdown.Key);
+        json.WriteStartArray("groups");
+        foreach (var g in breakdown.Groups)
+        {
+            json.WriteStartObject();
+            json.WriteString("value", g.Value);
+            WriteCounts(json, g.Lines, g.CharCounts, g.WordCounts);
+            json.WriteNumber("missing_lines", g.MissingLines);
+            json.WriteEndObject();
+        }
+        json.WriteEndArray();
+        json.WriteStartObject("pooled");
+        WriteCounts(json, breakdown.Lines, breakdown.CharCounts, breakdown.WordCounts);
+        json.WriteEndObject();
+        json.WriteNumber("mean_cer", breakdown.MeanCer);
+        json.WriteNumber("mean_wer", breakdown.MeanWer);
+        if (breakdown.Worst is { } worst)
+        {
+            json.WriteStartObject("worst");
+            json.WriteString("value", worst.Value);
+            json.WriteNumber("cer", worst.Cer);
+            json.WriteNumber("wer", worst.Wer);
+            json.WriteEndObject();
+        }
+        else
+        {
+            json.WriteNull("worst");
+        }
+        json.WriteEndObject();
+    }
+
+    private static void WriteCounts(Utf8JsonWriter json, int lines, EditCounts chars, EditCounts words)
+    {
+        json.WriteNumber("lines", lines);
+        json.WriteNumber("chars", chars.TruthLength);
+        json.WriteNumber("char_errors", chars.Distance);
+        json.WriteNumber("cer", ErrorRate.Of(chars));
+        json.WriteNumber("words", words.TruthLength);
+        json.WriteNumber("word_errors", words.Distance);
+        json.WriteNumber("wer", ErrorRate.Of(words));
     }
 
     private static IEnumerable<LineScore> WorstFirst(ScoreReport report) =>

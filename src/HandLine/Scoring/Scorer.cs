@@ -43,10 +43,21 @@ public static class Scorer
     /// Stage "read" or "manifest" for the truth file (scoring needs a clean one: every problem is
     /// listed); stage "run" for the run folder.
     /// </exception>
-    public static ScoreReport ScoreRun(string truthTsv, string runDir)
+    public static ScoreReport ScoreRun(string truthTsv, string runDir) => ScoreRun(truthTsv, runDir, []);
+
+    /// <summary>
+    /// As <see cref="ScoreRun(string, string)"/>, and split by each key in <paramref name="groupBy"/>
+    /// (<see cref="ScoreReport.Breakdowns"/>, in the order given, repeats dropped): a key is an extra column
+    /// of the manifest's <c>#columns</c> header, or <see cref="ScoreBreakdown.FolderKey"/>, which, unless the
+    /// manifest has a column of that name, groups by each image's folder (<see cref="ScoreBreakdown.FolderOf"/>).
+    /// </summary>
+    /// <exception cref="InputException">As the other overload; also stage "manifest" for a key the manifest lacks.</exception>
+    public static ScoreReport ScoreRun(string truthTsv, string runDir, IEnumerable<string> groupBy)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(truthTsv);
         ArgumentException.ThrowIfNullOrWhiteSpace(runDir);
+        ArgumentNullException.ThrowIfNull(groupBy);
+        var keys = groupBy.Distinct(StringComparer.Ordinal).ToArray();
 
         var manifest = Manifest.Read(truthTsv);
         if (manifest.Errors.Count > 0)
@@ -55,12 +66,32 @@ public static class Scorer
             throw new InputException(truthTsv, "manifest",
                 $"{manifest.Errors.Count} problem(s) in the truth file, fix them before scoring: {problems}");
         }
+        foreach (var key in keys)
+        {
+            ArgumentException.ThrowIfNullOrWhiteSpace(key, nameof(groupBy));
+            if (key != ScoreBreakdown.FolderKey && !manifest.Columns.Contains(key))
+                throw new InputException(truthTsv, "manifest", $"no column '{key}' to group by: " +
+                    (manifest.Columns.Count == 0
+                        ? $"the file has no {ManifestColumns.Marker} header"
+                        : $"its columns are {string.Join(", ", manifest.Columns)}") +
+                    $" ('{ScoreBreakdown.FolderKey}' groups by the images' folders)");
+        }
 
         var hypotheses = ByCanonicalPath(runDir, RunReader.ReadHypotheses(runDir));
-        return Score(manifest.Entries.Select(entry => new ScoreItem(
+        var report = Score(manifest.Entries.Select(entry => new ScoreItem(
             entry.RelativePath,
             entry.Text,
             hypotheses.GetValueOrDefault(entry.RelativePath))));
+        if (keys.Length == 0)
+            return report;
+
+        // Score keeps the input order, so line i is entry i.
+        var breakdowns = keys.Select(key => ScoreBreakdown.Of(key, report.PerLine.Select((line, i) =>
+        {
+            var entry = manifest.Entries[i];
+            return (line, entry.Column(key) ?? ScoreBreakdown.FolderOf(entry.RelativePath));
+        })));
+        return new ScoreReport(report.PerLine) { Breakdowns = breakdowns.ToArray() };
     }
 
     /// <summary>

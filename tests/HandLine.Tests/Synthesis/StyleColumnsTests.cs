@@ -1,0 +1,79 @@
+using System.Text.Json;
+using HandLine.Scoring;
+using HandLine.Synthesis;
+using static HandLine.Tests.Synthesis.SynthesisFixtures;
+using Xunit;
+
+namespace HandLine.Tests.Synthesis;
+
+public sealed class StyleColumnsTests : IDisposable
+{
+    private readonly string _dir = NewTempDir();
+
+    public void Dispose() => Directory.Delete(_dir, recursive: true);
+
+    /// <summary>The two fixture fonts laid out as ROOT/SPLIT/GROUP/FAMILY/file; returns ROOT.</summary>
+    private string LayOut()
+    {
+        var root = Path.Combine(_dir, "fonts");
+        foreach (var (group, family, file) in new[] { ("script", "comic-neue", Comic), ("sketch", "humor-sans", Humor) })
+        {
+            var folder = Directory.CreateDirectory(Path.Combine(root, "valid", group, family)).FullName;
+            File.Copy(Path.Combine(FontsDir, file), Path.Combine(folder, file));
+        }
+        return root;
+    }
+
+    [Fact]
+    public void Family_and_group_come_from_the_parent_and_grandparent_folders()
+    {
+        var root = LayOut();
+        foreach (var given in new[] { Path.Combine(root, "valid"), root })
+        {
+            using var catalog = FontCatalog.Load([given]);
+            Assert.Equal(
+                new[] { (Comic, "comic-neue", "script"), (Humor, "humor-sans", "sketch") },
+                catalog.Fonts.Select(f => (f.Name, f.Family, f.Group)));
+        }
+        // Directly in the given folder, or named as a file, there is no layout to read.
+        using var flat = FontCatalog.Load([Path.Combine(root, "valid", "script"), Path.Combine(FontsDir, Humor)]);
+        Assert.Equal(
+            new[] { (Comic, "ComicNeue-Regular", "ungrouped"), (Humor, "Humor-Sans", "ungrouped") },
+            flat.Fonts.Select(f => (f.Name, f.Family, f.Group)));
+        Assert.Equal(new[] { "ComicNeue-Regular", "Humor-Sans" }, Catalog.Fonts.Select(f => f.Family));
+    }
+
+    [Fact]
+    public void Synthesis_writes_each_line_s_family_and_group()
+    {
+        using var catalog = FontCatalog.Load([Path.Combine(LayOut(), "valid")]);
+        var summary = LineSynthesiser.Generate(new SynthesisRequest(catalog, 10, Path.Combine(_dir, "set"), 3), null);
+
+        var manifest = Manifest.Read(summary.ManifestPath);
+        Assert.Empty(manifest.Errors);
+        Assert.Equal(new[] { "family", "group" }, manifest.Columns);
+        Assert.Equal(10, manifest.Entries.Count);
+        var fontOf = File.ReadAllLines(summary.DegradationsPath)
+            .Select(l => JsonDocument.Parse(l).RootElement)
+            .ToDictionary(r => r.GetProperty("path").GetString()!, r => r.GetProperty("font").GetString()!);
+        foreach (var e in manifest.Entries)
+        {
+            var (family, group) = fontOf[e.RelativePath] == Comic ? ("comic-neue", "script") : ("humor-sans", "sketch");
+            Assert.Equal(family, e.Column("family"));
+            Assert.Equal(group, e.Column("group"));
+        }
+        Assert.Equal(2, manifest.Entries.Select(e => e.Column("family")).Distinct().Count()); // seed 3 uses both fonts
+    }
+
+    [Fact]
+    public void Digit_lines_are_the_mnist_family_in_the_digits_group()
+    {
+        var digits = MnistDigits.Load(MnistDigitsTests.FixtureDir);
+        var summary = LineSynthesiser.Generate(new SynthesisRequest(Catalog, 4, _dir, 2,
+            Digits: new DigitSource(digits, MnistSplit.Validation)), null);
+
+        var manifest = Manifest.Read(summary.ManifestPath);
+        Assert.Empty(manifest.Errors);
+        Assert.All(manifest.Entries, e => Assert.Equal(("mnist", "digits"), (e.Column("family"), e.Column("group"))));
+    }
+}
