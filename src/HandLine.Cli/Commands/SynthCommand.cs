@@ -12,7 +12,7 @@ internal static class SynthCommand
     {
         var fonts = new Option<string[]>("--fonts")
         {
-            Description = "Font files or folders (.ttf, .otf, .woff)", Required = true, AllowMultipleArgumentsPerToken = true,
+            Description = "Font files or folders (.ttf, .otf, .woff; single-stroke Hershey faces .jhf, e.g. /usr/share/hershey-fonts)", Required = true, AllowMultipleArgumentsPerToken = true,
         };
         var count = new Option<int>("--count") { Description = "Lines to render", Required = true };
         var outDir = new Option<string>("--out") { Description = "Folder for lines/*.png, lines.tsv and degradations.jsonl", Required = true };
@@ -51,6 +51,8 @@ internal static class SynthCommand
             }
             using var catalog = FontCatalog.Load(parse.GetValue(fonts)!);
             foreach (var e in catalog.Errors) Console.Error.WriteLine($"skipped font: {e.Message}");
+            foreach (var f in catalog.Fonts.Where(f => f.IsStrokeFace && f.MissingDefaultSymbols.Count > 0))
+                Console.Error.WriteLine($"stroke face {f.Name} lacks {string.Join("", f.MissingDefaultSymbols)}: lines with them use other faces");
             var textPath = parse.GetValue(text);
             IEnumerable<string>? texts = null;
             if (textPath is not null)

@@ -47,6 +47,45 @@ public sealed record Degradation
 
     public double BleedOffsetYPx { get; init; }
 
+    /// <summary>Standard deviation of each glyph's own lean, on top of the line's shear.</summary>
+    public double GlyphShearJitterDegrees { get; init; }
+
+    /// <summary>Standard deviation of each glyph's pen weight (stroke width added or taken), in pixels.</summary>
+    public double GlyphWeightJitterPx { get; init; }
+
+    /// <summary>Amplitude of the slow random drift of the baseline along the line (besides the sine wobble).</summary>
+    public double BaselineDriftPx { get; init; }
+
+    /// <summary>Distance between the drift's random knots, in em.</summary>
+    public double BaselineDriftCellEm { get; init; } = 2.5;
+
+    /// <summary>Standard deviation of each gap after a glyph, in em (word spaces vary three times as much).</summary>
+    public double GapJitterEm { get; init; }
+
+    /// <summary>Chance that a glyph is tucked into its left neighbour, so the two touch or overlap.</summary>
+    public double TouchProbability { get; init; }
+
+    /// <summary>How far a tucked glyph moves left, in em.</summary>
+    public double TouchDepthEm { get; init; }
+
+    /// <summary>Largest share of ink lost where the pen pressed lightly (a smooth random field over the line).</summary>
+    public double PressureVariation { get; init; }
+
+    /// <summary>In font lines, the chance that each slash, dash, full stop, colon or comma is a pen stroke instead of a glyph.</summary>
+    public double PenSeparatorShare { get; init; }
+
+    /// <summary>The same chance in lines of MNIST digits.</summary>
+    public double DigitPenSeparatorShare { get; init; }
+
+    /// <summary>Pen width of stroke faces and pen-drawn separators, as a share of the font size.</summary>
+    public double PenWidthEm { get; init; } = 0.06;
+
+    /// <summary>How much the pen width swells and thins along a stroke (relative).</summary>
+    public double PenWidthVariation { get; init; }
+
+    /// <summary>Standard deviation of the hand's deviation from a stroke's ideal path, in pixels.</summary>
+    public double PenJitterPx { get; init; }
+
     /// <summary>Draws one line's degradations from the ranges.</summary>
     public static Degradation Sample(Random rng, DegradationRanges ranges)
     {
@@ -88,6 +127,19 @@ public sealed record Degradation
             BleedThroughDarkness = ranges.BleedThroughDarkness.Sample(rng),
             BleedShift = rng.NextDouble(),
             BleedOffsetYPx = -6 + 12 * rng.NextDouble(),
+            GlyphShearJitterDegrees = ranges.GlyphShearJitterDegrees.Sample(rng),
+            GlyphWeightJitterPx = ranges.GlyphWeightJitterPx.Sample(rng),
+            BaselineDriftPx = ranges.BaselineDriftPx.Sample(rng),
+            BaselineDriftCellEm = ranges.BaselineDriftCellEm.Sample(rng),
+            GapJitterEm = ranges.GapJitterEm.Sample(rng),
+            TouchProbability = ranges.TouchProbability.Sample(rng),
+            TouchDepthEm = ranges.TouchDepthEm.Sample(rng),
+            PressureVariation = ranges.PressureVariation.Sample(rng),
+            PenSeparatorShare = ranges.PenSeparatorShare.Sample(rng),
+            DigitPenSeparatorShare = ranges.DigitPenSeparatorShare.Sample(rng),
+            PenWidthEm = ranges.PenWidthEm.Sample(rng),
+            PenWidthVariation = ranges.PenWidthVariation.Sample(rng),
+            PenJitterPx = ranges.PenJitterPx.Sample(rng),
         };
     }
 
@@ -123,5 +175,17 @@ public sealed record Degradation
                      (nameof(RuledLineDarkness), RuledLineDarkness), (nameof(BleedThroughDarkness), BleedThroughDarkness) })
             Check(double.IsFinite(v) && v >= 0, n, v);
         Check(GlyphScaleJitter < 0.5, nameof(GlyphScaleJitter), GlyphScaleJitter);
+        foreach (var (n, v) in new[] { (nameof(GlyphShearJitterDegrees), GlyphShearJitterDegrees),
+                     (nameof(GlyphWeightJitterPx), GlyphWeightJitterPx), (nameof(BaselineDriftPx), BaselineDriftPx),
+                     (nameof(GapJitterEm), GapJitterEm), (nameof(TouchDepthEm), TouchDepthEm),
+                     (nameof(PenWidthVariation), PenWidthVariation), (nameof(PenJitterPx), PenJitterPx) })
+            Check(double.IsFinite(v) && v >= 0 && v <= 100, n, v);
+        foreach (var (n, v) in new[] { (nameof(TouchProbability), TouchProbability), (nameof(PenSeparatorShare), PenSeparatorShare),
+                     (nameof(DigitPenSeparatorShare), DigitPenSeparatorShare) })
+            Check(v is >= 0 and <= 1, n, v);
+        Check(PressureVariation is >= 0 and <= 0.9, nameof(PressureVariation), PressureVariation);
+        Check(BaselineDriftCellEm is >= 0.2 and <= 100, nameof(BaselineDriftCellEm), BaselineDriftCellEm);
+        Check(PenWidthEm is > 0 and <= 0.3, nameof(PenWidthEm), PenWidthEm);
+        Check(PenWidthVariation < 1, nameof(PenWidthVariation), PenWidthVariation);
     }
 }

@@ -31,6 +31,19 @@ public sealed record DegradationRanges
         JpegQuality = Effect.Off,
         RuledLineDarkness = Effect.Off,
         BleedThroughDarkness = Effect.Off,
+        GlyphShearJitterDegrees = Effect.Off,
+        GlyphWeightJitterPx = Effect.Off,
+        BaselineDriftPx = Effect.Off,
+        BaselineDriftCellEm = new(2.5, 2.5),
+        GapJitterEm = Effect.Off,
+        TouchProbability = Effect.Off,
+        TouchDepthEm = new(0, 0),
+        PressureVariation = Effect.Off,
+        PenSeparatorShare = Effect.Off,
+        DigitPenSeparatorShare = Effect.Off,
+        PenWidthEm = new(0.06, 0.06),
+        PenWidthVariation = Effect.Off,
+        PenJitterPx = Effect.Off,
     };
 
     public Interval FontSizePx { get; init; } = new(32, 48);
@@ -103,4 +116,43 @@ public sealed record DegradationRanges
 
     /// <summary>Ink share of writing from the other side of the leaf showing through, mirrored.</summary>
     public Effect BleedThroughDarkness { get; init; } = new(0.15, 0.04, 0.15);
+
+    /// <summary>Standard deviation of each glyph's own lean, on top of the line's shear.</summary>
+    public Effect GlyphShearJitterDegrees { get; init; } = new(0.6, 1, 5);
+
+    /// <summary>Standard deviation of each glyph's pen weight, so some letters come out bolder than their neighbours.</summary>
+    public Effect GlyphWeightJitterPx { get; init; } = new(0.5, 0.2, 0.8);
+
+    /// <summary>Amplitude of the slow random drift of the baseline, on top of the sine wobble.</summary>
+    public Effect BaselineDriftPx { get; init; } = new(0.6, 0.5, 3);
+
+    /// <summary>Distance between the drift's random knots, in em.</summary>
+    public Interval BaselineDriftCellEm { get; init; } = new(1.5, 4);
+
+    /// <summary>Standard deviation of each gap after a glyph, in em; word spaces vary three times as much.</summary>
+    public Effect GapJitterEm { get; init; } = new(0.6, 0.01, 0.04);
+
+    /// <summary>Chance per glyph of being tucked into its neighbour so the two touch or overlap.</summary>
+    public Effect TouchProbability { get; init; } = new(0.4, 0.05, 0.25);
+
+    /// <summary>How far a tucked glyph moves into its neighbour, in em.</summary>
+    public Interval TouchDepthEm { get; init; } = new(0.03, 0.09);
+
+    /// <summary>Largest share of ink lost where the pen pressed lightly.</summary>
+    public Effect PressureVariation { get; init; } = new(0.5, 0.15, 0.5);
+
+    /// <summary>Font lines: chance per separator (slash, dash, stop, colon, comma) of a pen stroke instead of the font's glyph.</summary>
+    public Effect PenSeparatorShare { get; init; } = new(0.4, 0.5, 1);
+
+    /// <summary>Lines of MNIST digits: the same chance; most written figures have hand-made separators.</summary>
+    public Effect DigitPenSeparatorShare { get; init; } = new(0.8, 0.5, 1);
+
+    /// <summary>Pen width of stroke faces and pen-drawn separators, as a share of the font size.</summary>
+    public Interval PenWidthEm { get; init; } = new(0.04, 0.09);
+
+    /// <summary>Relative swelling and thinning of the pen width along a stroke.</summary>
+    public Effect PenWidthVariation { get; init; } = new(0.7, 0.1, 0.35);
+
+    /// <summary>Standard deviation of the hand's deviation from a stroke's ideal path, in pixels.</summary>
+    public Effect PenJitterPx { get; init; } = new(0.7, 0.2, 0.7);
 }

@@ -39,75 +39,93 @@ public static class DigitLineRenderer
         var master = new Random(d.Seed);
         var rng = new Random(master.Next());
         var size = (float)d.FontSizePx;
-        using var skFont = new SKFont(font.Typeface, size);
-        var cap = FigureHeight(skFont, size);
+        using var pen = new GlyphPen(font, size);
+        var cap = pen.FigureHeight();
+        var xHeight = pen.XHeight();
+        var drift = new BaselineDrift(d, runes.Length, new Random(rng.Next()));
+        var linePen = LineRenderer.LinePen(d);
+        var spacing = (float)(d.LetterSpacingEm * size);
 
-        // Layout on a baseline at y = 0 (y grows downwards).
-        var placed = new List<(float[] Crop, int Cw, int Ch, float X, float Top, float Scale)>();
-        using var path = new SKPath();
-        float x = 0, top = -cap, bottom = 0;
+        // Layout on a baseline at y = 0 (y grows downwards). Each digit is placed by its own transform from
+        // crop pixels; separators and letters go into the ink drawing.
+        var placed = new List<(float[] Crop, int Cw, int Ch, SKMatrix ToLine)>();
+        using var ink = new InkDrawing();
+        var box = SKRect.Create(0, -cap, 0, cap);
+        float x = 0;
+        var previousInk = false;
         var next = 0;
         foreach (var r in runes)
         {
-            var jitter = (float)Math.Max(0.6, 1 + d.GlyphScaleJitter * RasterOps.NextGaussian(rng));
-            var dy = (float)(d.GlyphOffsetJitterPx * RasterOps.NextGaussian(rng));
-            var spacing = (float)(d.LetterSpacingEm * size);
+            var space = Rune.IsWhiteSpace(r);
+            var j = GlyphJitter.Draw(rng, d, size, space);
+            if (space)
+            {
+                x += Math.Max(0.15f * size, 0.3f * size * j.Scale + j.Gap) + spacing;
+                previousInk = false;
+                continue;
+            }
+            if (previousInk)
+                x -= j.Tuck;
+            var y = drift.At(x);
+            var glyphPen = linePen with { WidthPx = Math.Max(0.8f, linePen.WidthPx + j.Weight) };
             if (r.Value is >= '0' and <= '9')
             {
                 var (crop, cw, ch) = Crop(digits.Sample(r.Value - '0', samples[next++], split));
-                // Digits stand on the baseline as tall as the font's own figures.
-                var s = cap * jitter / ch;
-                var t = -ch * s + dy;
-                placed.Add((crop, cw, ch, x, t, s));
-                top = Math.Min(top, t);
-                bottom = Math.Max(bottom, dy);
-                x += cw * s + spacing + (float)(DigitGapEm * size);
+                // Digits stand on the baseline as tall as the face's own figures.
+                var s = cap / ch;
+                var width = cw * s;
+                var m = j.Transform(x, y, width / 2)
+                    .PreConcat(SKMatrix.CreateTranslation(0, -ch * s))
+                    .PreConcat(SKMatrix.CreateScale(s, s));
+                placed.Add((crop, cw, ch, m));
+                box = SKRect.Union(box, m.MapRect(SKRect.Create(0, 0, cw, ch)));
+                // MNIST crops have no side bearings: a small gap keeps digits apart about as often as a
+                // writer's are (common practice, no source); the jitter and tuck make some touch, some stand wide.
+                x += width * j.Scale + spacing + (float)(DigitGapEm * size) + j.Gap;
             }
-            else if (Rune.IsWhiteSpace(r))
+            else if (j.PenRoll < d.DigitPenSeparatorShare && PenSeparators.CanDraw(r))
             {
-                x += 0.3f * size + spacing;
+                x += PenSeparators.Draw(ink, r, j.Transform(x, y, 0.1f * size), size, xHeight, glyphPen, rng) * j.Scale + spacing + j.Gap;
             }
             else
             {
-                var glyph = skFont.GetGlyph(r.Value);
-                using var g = skFont.GetGlyphPath(glyph);
-                var advance = skFont.GetGlyphWidths([glyph], null)[0];
-                if (g is not null && !g.IsEmpty)
-                {
-                    var m = SKMatrix.CreateTranslation(x, dy).PreConcat(SKMatrix.CreateScale(jitter, jitter, 0, 0));
-                    path.AddPath(g, in m);
-                    var b = path.Bounds;
-                    top = Math.Min(top, b.Top);
-                    bottom = Math.Max(bottom, b.Bottom);
-                }
-                x += advance * jitter + spacing;
+                var advance = pen.Advance(r);
+                pen.Draw(ink, r, j.Transform(x, y, advance / 2), (float)d.StrokeWidthPx + j.Weight, glyphPen, rng);
+                x += advance * j.Scale + spacing + j.Gap;
             }
+            previousInk = true;
         }
+        if (!ink.IsEmpty)
+            box = SKRect.Union(box, ink.Bounds);
+        box = SKRect.Union(box, SKRect.Create(0, box.Top, Math.Max(x, 1), 1));
 
         // Canvas: content plus padding, with room for the shear and rotation applied below.
         var shear = (float)Math.Tan(d.ShearDegrees * Math.PI / 180);
         var angle = d.RotationDegrees * Math.PI / 180;
         var (sin, cos) = ((float)Math.Sin(angle), (float)Math.Cos(angle));
-        var contentH = bottom - top;
+        var top = box.Top;
+        var contentH = box.Bottom - top;
+        var contentW = box.Width;
         var margin = (float)(d.StrokeWidthPx / 2 + 3 * d.ElasticAlphaPx + 2 * d.BlurSigmaPx + 1);
         var slack = Math.Abs(shear) * contentH + Math.Abs(sin) * contentH;
-        var rise = Math.Abs(sin) * x / 2;
+        var rise = Math.Abs(sin) * contentW / 2;
         var left = (float)d.PadLeftPx + margin + slack;
-        var w = Math.Max(1, (int)Math.Ceiling(left + x + slack + margin + d.PadRightPx));
+        var w = Math.Max(1, (int)Math.Ceiling(left + contentW + slack + margin + d.PadRightPx));
         var h = Math.Max(1, (int)Math.Ceiling(d.PadTopPx + margin + rise + contentH + rise + margin + d.PadBottomPx));
         if ((long)w * h > MaxPixels)
             throw new ArgumentException($"Line too large to render ({w}x{h} pixels).", nameof(text));
         var baseY = (float)d.PadTopPx + margin + rise - top;
+        var toCanvas = SKMatrix.CreateTranslation(left - box.Left, baseY);
 
-        path.Transform(SKMatrix.CreateTranslation(left, baseY));
-        var ink = LineRenderer.Rasterise(path, w, h, d.StrokeWidthPx);
+        ink.Transform(toCanvas);
+        var inkPixels = ink.Rasterise(w, h);
         foreach (var p in placed)
-            Stamp(ink, w, h, p.Crop, p.Cw, p.Ch, left + p.X, baseY + p.Top, p.Scale);
+            Stamp(inkPixels, w, h, p.Crop, p.Cw, p.Ch, toCanvas.PreConcat(p.ToLine));
         if (shear != 0 || sin != 0)
         {
             // Each output pixel takes its ink from where the leaning, turned writing put it: undo the turn
             // (anticlockwise on the page, y down) about the line's middle, then the lean about the baseline.
-            var cx = left + x / 2;
+            var cx = left + contentW / 2;
             var dx = new float[w * h];
             var dyField = new float[w * h];
             for (var yy = 0; yy < h; yy++)
@@ -120,30 +138,13 @@ public static class DigitLineRenderer
                     dx[yy * w + xx] = su - u;
                     dyField[yy * w + xx] = sv - v;
                 }
-            ink = RasterOps.Warp(ink, w, h, dx, dyField);
+            inkPixels = RasterOps.Warp(inkPixels, w, h, dx, dyField);
         }
         // The rule runs under the turned baseline: its start is where the unturned line's start went.
-        var bu = -x / 2;
-        var startX = left + x / 2 + bu * cos;
+        var bu = -contentW / 2;
+        var startX = left + contentW / 2 + bu * cos;
         var startY = baseY - bu * sin;
-        return LineRenderer.Finish(ink, w, h, d, new LineRenderer.Baseline(startX, startY, angle), master);
-    }
-
-    /// <summary>
-    /// How tall the font's own figures are: digits are drawn at that height so they sit with the font's
-    /// separators. Measured from the glyph outlines because some fonts declare nonsense cap heights (0.15 em
-    /// in one of ours, which drew specks instead of digits); kept within 0.45–1 em.
-    /// </summary>
-    private static float FigureHeight(SKFont font, float size)
-    {
-        var heights = new List<float>();
-        for (var c = '0'; c <= '9'; c++)
-        {
-            using var p = font.GetGlyphPath(font.GetGlyph(c));
-            if (p is not null && !p.IsEmpty) heights.Add(p.Bounds.Height);
-        }
-        var h = heights.Count > 0 ? heights.Average() : 0.7f * size;
-        return Math.Clamp(h, 0.45f * size, size);
+        return LineRenderer.Finish(inkPixels, w, h, d, new LineRenderer.Baseline(startX, startY, angle), master);
     }
 
     /// <summary>The sample cut to its ink (values above 0.1), so every digit's height can be set alike.</summary>
@@ -165,20 +166,25 @@ public static class DigitLineRenderer
         return (crop, cw, ch);
     }
 
-    /// <summary>Scales the crop bilinearly onto the ink canvas at (left, top), keeping the darker of the two.</summary>
-    private static void Stamp(float[] ink, int w, int h, float[] crop, int cw, int ch, float left, float top, float scale)
+    /// <summary>
+    /// Draws the crop onto the ink canvas through <paramref name="toCanvas"/> (crop pixels to canvas pixels),
+    /// sampling bilinearly through the inverse map and keeping the darker of the two.
+    /// </summary>
+    private static void Stamp(float[] ink, int w, int h, float[] crop, int cw, int ch, SKMatrix toCanvas)
     {
-        var x0 = Math.Max(0, (int)MathF.Floor(left));
-        var x1 = Math.Min(w - 1, (int)MathF.Ceiling(left + cw * scale));
-        var y0 = Math.Max(0, (int)MathF.Floor(top));
-        var y1 = Math.Min(h - 1, (int)MathF.Ceiling(top + ch * scale));
+        if (!toCanvas.TryInvert(out var inv))
+            return;
+        var b = toCanvas.MapRect(SKRect.Create(0, 0, cw, ch));
+        var x0 = Math.Max(0, (int)MathF.Floor(b.Left));
+        var x1 = Math.Min(w - 1, (int)MathF.Ceiling(b.Right));
+        var y0 = Math.Max(0, (int)MathF.Floor(b.Top));
+        var y1 = Math.Min(h - 1, (int)MathF.Ceiling(b.Bottom));
         for (var y = y0; y <= y1; y++)
         {
-            var sy = (y + 0.5f - top) / scale - 0.5f;
             for (var x = x0; x <= x1; x++)
             {
-                var sx = (x + 0.5f - left) / scale - 0.5f;
-                var v = RasterOps.Bilinear(crop, cw, ch, sx, sy);
+                var s = inv.MapPoint(x + 0.5f, y + 0.5f);
+                var v = RasterOps.Bilinear(crop, cw, ch, s.X - 0.5f, s.Y - 0.5f);
                 var i = y * w + x;
                 if (v > ink[i]) ink[i] = v;
             }

@@ -4,11 +4,25 @@ namespace HandLine.Synthesis;
 
 /// <summary>
 /// The fonts found under a set of files and folders, in path order so every run sees the same list.
+/// Outline fonts (.ttf, .otf, .woff) and single-stroke Hershey faces (.jhf) are both faces.
 /// A file that cannot be loaded is reported in <see cref="Errors"/> and the rest still load.
 /// </summary>
 public sealed class FontCatalog : IDisposable
 {
-    private static readonly string[] Extensions = [".ttf", ".otf", ".woff"];
+    private static readonly string[] Extensions = [".ttf", ".otf", ".woff", StrokeExtension];
+
+    private const string StrokeExtension = ".jhf";
+
+    // Faces of hershey-fonts-data that a folder scan skips (an explicitly named file still loads): those whose
+    // records, in file order, are not the ASCII characters from U+0020 (Greek, Cyrillic, Japanese and symbol
+    // sets), where mapping them as ASCII would draw other letters than the transcript says; and the blackletter
+    // faces, whose long s and Fraktur capitals read as other letters (seen on rendered lines).
+    private static readonly HashSet<string> NonAsciiStrokeFaces = new(StringComparer.OrdinalIgnoreCase)
+    {
+        "astrology", "cyrilc_1", "cyrillic", "greek", "greekc", "greeks", "japanese", "markers", "mathlow",
+        "mathupp", "meteorology", "music", "symbolic", "timesg",
+        "gothgbt", "gothgrt", "gothiceng", "gothicger", "gothicita", "gothitt",
+    };
 
     private FontCatalog(IReadOnlyList<FontFace> fonts, IReadOnlyList<InputException> errors)
     {
@@ -21,7 +35,8 @@ public sealed class FontCatalog : IDisposable
     public IReadOnlyList<InputException> Errors { get; }
 
     /// <summary>
-    /// Loads font files and every .ttf/.otf/.woff below the given folders (recursively). Fonts are expected
+    /// Loads font files and every .ttf/.otf/.woff/.jhf below the given folders (recursively; Hershey faces whose
+    /// records are not ASCII letters are left out of folder scans). Fonts are expected
     /// at <c>ROOT/SPLIT/GROUP/FAMILY/file</c>: a font found two or more folders below a given folder takes
     /// its family from its parent folder's name and its group from its grandparent's. A font directly in a
     /// given folder or one folder below it, or a font file given by name, has no such layout to read: its
@@ -40,7 +55,7 @@ public sealed class FontCatalog : IDisposable
             if (Directory.Exists(full))
             {
                 foreach (var f in Directory.EnumerateFiles(full, "*", SearchOption.AllDirectories))
-                    if (IsFontFile(f))
+                    if (IsFontFile(f) && !NonAsciiStrokeFaces.Contains(System.IO.Path.GetFileNameWithoutExtension(f)))
                         files.TryAdd(f, StyleFolders(full, f));
             }
             else if (File.Exists(full))
@@ -80,9 +95,11 @@ public sealed class FontCatalog : IDisposable
     {
         if (!IsFontFile(file))
         {
-            errors.Add(new InputException(file, "font", "not a .ttf, .otf or .woff file"));
+            errors.Add(new InputException(file, "font", "not a .ttf, .otf, .woff or .jhf file"));
             return null;
         }
+        if (System.IO.Path.GetExtension(file).Equals(StrokeExtension, StringComparison.OrdinalIgnoreCase))
+            return TryLoadStrokeFace(file, family, group, errors);
         SKTypeface? typeface;
         try
         {
@@ -102,6 +119,27 @@ public sealed class FontCatalog : IDisposable
         if (face.CoveredDefaultCodePoints.Count == 0)
         {
             face.Dispose();
+            errors.Add(new InputException(file, "font", "has no glyphs for the character set"));
+            return null;
+        }
+        return face;
+    }
+
+    private static FontFace? TryLoadStrokeFace(string file, string? family, string? group, List<InputException> errors)
+    {
+        HersheyFont strokes;
+        try
+        {
+            strokes = HersheyFont.Load(file);
+        }
+        catch (InputException e)
+        {
+            errors.Add(e);
+            return null;
+        }
+        var face = new FontFace(file, strokes, family, group);
+        if (face.CoveredDefaultCodePoints.Count == 0)
+        {
             errors.Add(new InputException(file, "font", "has no glyphs for the character set"));
             return null;
         }

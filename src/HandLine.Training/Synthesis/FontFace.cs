@@ -6,12 +6,13 @@ using SkiaSharp;
 namespace HandLine.Synthesis;
 
 /// <summary>
-/// One loaded font file. Owns its typeface. Safe to share between threads for reading:
-/// every render makes its own <see cref="SKFont"/>.
+/// One loaded face: an outline font file (owning its typeface) or a single-stroke Hershey face drawn as pen
+/// paths. Safe to share between threads for reading: every render makes its own <see cref="SKFont"/>.
 /// </summary>
 public sealed class FontFace : IDisposable
 {
-    private readonly SKTypeface _typeface;
+    private readonly SKTypeface? _typeface;
+    private readonly HersheyFont? _strokes;
     private readonly HashSet<int> _coveredDefault;
 
     /// <summary>The group of a font that is not laid out in group and family folders.</summary>
@@ -37,6 +38,29 @@ public sealed class FontFace : IDisposable
         }
     }
 
+    internal FontFace(string path, HersheyFont strokes, string? family = null, string? group = null)
+    {
+        Path = path;
+        Name = System.IO.Path.GetFileName(path);
+        Family = family ?? System.IO.Path.GetFileNameWithoutExtension(path);
+        Group = group ?? Ungrouped;
+        _strokes = strokes;
+        _coveredDefault = new HashSet<int>();
+        foreach (var symbol in CharacterSet.Default.Symbols)
+        {
+            var rune = Rune.GetRuneAt(symbol, 0);
+            if (strokes.Glyph(rune.Value) is not null)
+                _coveredDefault.Add(rune.Value);
+        }
+    }
+
+    /// <summary>True for a single-stroke (Hershey) face, drawn with a pen rather than filled.</summary>
+    public bool IsStrokeFace => _strokes is not null;
+
+    /// <summary>The symbols of <see cref="CharacterSet.Default"/> this face cannot draw, in set order.</summary>
+    public IReadOnlyList<string> MissingDefaultSymbols =>
+        CharacterSet.Default.Symbols.Where(s => !_coveredDefault.Contains(Rune.GetRuneAt(s, 0).Value)).ToList();
+
     /// <summary>File name, e.g. "Humor-Sans.ttf".</summary>
     public string Name { get; }
 
@@ -52,7 +76,11 @@ public sealed class FontFace : IDisposable
     /// <summary>Full path the font was loaded from.</summary>
     public string Path { get; }
 
-    internal SKTypeface Typeface => _typeface;
+    /// <summary>The outline typeface; null for a stroke face.</summary>
+    internal SKTypeface? Typeface => _typeface;
+
+    /// <summary>The single-stroke glyphs; null for an outline font.</summary>
+    internal HersheyFont? StrokeFont => _strokes;
 
     /// <summary>Symbols of <see cref="CharacterSet.Default"/> this font can draw.</summary>
     public IReadOnlySet<int> CoveredDefaultCodePoints => _coveredDefault;
@@ -73,7 +101,13 @@ public sealed class FontFace : IDisposable
                     continue;
                 if (CharacterSet.Default.Contains(rune.ToString()))
                     return false; // already checked when loaded
-                font ??= new SKFont(_typeface, 40);
+                if (_strokes is not null)
+                {
+                    if (_strokes.Glyph(rune.Value) is null)
+                        return false;
+                    continue;
+                }
+                font ??= new SKFont(_typeface!, 40);
                 if (!HasRealGlyph(font, rune))
                     return false;
             }
@@ -109,7 +143,7 @@ public sealed class FontFace : IDisposable
         return path is not null && !path.IsEmpty && !path.Bounds.IsEmpty;
     }
 
-    public void Dispose() => _typeface.Dispose();
+    public void Dispose() => _typeface?.Dispose();
 
     public override string ToString() => Name;
 }

@@ -26,7 +26,7 @@ public static class LineRenderer
         var master = new Random(d.Seed);
         var glyphRng = new Random(master.Next());
 
-        using var path = Layout(text, font, d, glyphRng, out var baseline, out var b);
+        using var ink = Layout(text, font, d, glyphRng, out var baseline, out var b);
         var margin = (float)(d.StrokeWidthPx / 2 + 3 * d.ElasticAlphaPx + 2 * d.BlurSigmaPx + 1);
         var left = b.Left - margin - (float)d.PadLeftPx;
         var top = b.Top - margin - (float)d.PadTopPx;
@@ -34,17 +34,16 @@ public static class LineRenderer
         var h = Math.Max(1, (int)Math.Ceiling(b.Bottom + margin + d.PadBottomPx - top));
         if ((long)w * h > MaxPixels)
             throw new ArgumentException($"Line too large to render ({w}x{h} pixels).", nameof(text));
-        path.Transform(SKMatrix.CreateTranslation(-left, -top));
+        ink.Transform(SKMatrix.CreateTranslation(-left, -top));
         baseline = new Baseline(baseline.X - left, baseline.Y - top, baseline.AngleRadians);
 
-        var ink = Rasterise(path, w, h, d.StrokeWidthPx);
-        return Finish(ink, w, h, d, baseline, master);
+        return Finish(ink.Rasterise(w, h), w, h, d, baseline, master);
     }
 
     /// <summary>
     /// The degradations that act on drawn ink, shared by font lines and digit lines: erosion, elastic
-    /// distortion, fading, paper, ruling, show-through, lighting, blur, noise and JPEG. <paramref name="master"/>
-    /// supplies the effects' independent random streams.
+    /// distortion, fading, pen pressure, paper, ruling, show-through, lighting, blur, noise and JPEG.
+    /// <paramref name="master"/> supplies the effects' independent random streams.
     /// </summary>
     internal static GrayImage Finish(float[] ink, int w, int h, Degradation d, Baseline baseline, Random master)
     {
@@ -52,22 +51,13 @@ public static class LineRenderer
         var paperNoise = new PixelNoise(master.Next());
         var fadeRng = new Random(master.Next());
         var pixelNoise = new PixelNoise(master.Next());
+        var pressureNoise = new PixelNoise(master.Next());
         RasterOps.Erode(ink, w, h, d.Erosion);
-        if (d.ElasticAlphaPx > 0)
-        {
-            // Elastic distortion: smooth random displacement field (Simard, Steinkraus & Platt 2003).
-            var dx = RasterOps.SmoothField(ref elasticNoise, w, h, d.ElasticSigmaPx);
-            var dy = RasterOps.SmoothField(ref elasticNoise, w, h, d.ElasticSigmaPx);
-            var a = (float)d.ElasticAlphaPx;
-            for (var i = 0; i < dx.Length; i++)
-            {
-                dx[i] *= a;
-                dy[i] *= a;
-            }
-            ink = RasterOps.Warp(ink, w, h, dx, dy);
-        }
+        ink = RasterOps.Elastic(ink, w, h, d.ElasticAlphaPx, d.ElasticSigmaPx, ref elasticNoise);
         if (d.Fading > 0)
             Fade(ink, w, h, d.Fading, fadeRng);
+        if (d.PressureVariation > 0)
+            Press(ink, w, h, d.PressureVariation, 0.5 * d.FontSizePx, ref pressureNoise);
 
         var lum = Compose(ink, w, h, d, baseline, ref paperNoise);
         RasterOps.GaussianBlur(lum, w, h, d.BlurSigmaPx);
@@ -81,44 +71,55 @@ public static class LineRenderer
     /// <summary>Where the writing line starts on the canvas and its anticlockwise angle, for ruling.</summary>
     internal readonly record struct Baseline(float X, float Y, double AngleRadians);
 
-    /// <summary>All glyph outlines placed on one path, in unpadded coordinates.</summary>
-    private static SKPath Layout(
+    /// <summary>The pen of stroke faces and pen-drawn separators for this line, before per-glyph weight.</summary>
+    internal static PenStyle LinePen(Degradation d) =>
+        new((float)(d.PenWidthEm * d.FontSizePx + d.StrokeWidthPx), (float)d.PenWidthVariation, (float)d.PenJitterPx);
+
+    /// <summary>All glyphs placed one by one, each with its own transform, in unpadded coordinates.</summary>
+    private static InkDrawing Layout(
         string text, FontFace face, Degradation d, Random rng, out Baseline baseline, out SKRect bounds)
     {
         var size = (float)d.FontSizePx;
-        using var font = new SKFont(face.Typeface, size);
+        using var pen = new GlyphPen(face, size);
         var runes = text.Normalize(NormalizationForm.FormC).EnumerateRunes().ToArray();
-        var glyphs = new ushort[runes.Length];
-        for (var i = 0; i < runes.Length; i++)
-            glyphs[i] = font.GetGlyph(runes[i].Value);
-        var advances = font.GetGlyphWidths(glyphs, null);
+        var drift = new BaselineDrift(d, runes.Length, new Random(rng.Next()));
+        var linePen = LinePen(d);
+        var xHeight = pen.XHeight();
 
         var spacing = (float)(d.LetterSpacingEm * size);
         var wobbleK = 2 * Math.PI / d.WobblePeriodPx;
-        var combined = new SKPath();
+        var ink = new InkDrawing();
         float x = 0;
+        var previousInk = false;
         for (var i = 0; i < runes.Length; i++)
         {
-            var advance = glyphs[i] == 0 && Rune.IsWhiteSpace(runes[i]) ? 0.3f * size : advances[i];
-            // Jitter is drawn for every glyph (even spaces) so a text prefix keeps its glyphs' jitter.
-            var scale = (float)Math.Max(0.5, 1 + d.GlyphScaleJitter * RasterOps.NextGaussian(rng));
-            var dy = (float)(d.GlyphOffsetJitterPx * RasterOps.NextGaussian(rng));
-            var rot = (float)(d.GlyphRotationJitterDegrees * RasterOps.NextGaussian(rng));
-            if (glyphs[i] != 0 && !Rune.IsWhiteSpace(runes[i]))
+            var r = runes[i];
+            var space = Rune.IsWhiteSpace(r);
+            var j = GlyphJitter.Draw(rng, d, size, space);
+            if (space)
             {
-                using var g = font.GetGlyphPath(glyphs[i]);
-                if (g is not null && !g.IsEmpty)
-                {
-                    var wobble = (float)(d.WobbleAmplitudePx * Math.Sin(wobbleK * x + d.WobblePhase));
-                    // Scale and turn about the glyph's foot so jitter does not shift its spacing.
-                    var cx = advance / 2;
-                    var m = SKMatrix.CreateTranslation(x, wobble + dy)
-                        .PreConcat(SKMatrix.CreateRotationDegrees(rot, cx, 0))
-                        .PreConcat(SKMatrix.CreateScale(scale, scale, cx, 0));
-                    combined.AddPath(g, in m);
-                }
+                x += Math.Max(0.15f * size, pen.Advance(r) * j.Scale + j.Gap) + spacing;
+                previousInk = false;
+                continue;
             }
-            x += advance * scale + spacing;
+            // A tucked glyph moves into its left neighbour, so the two touch or overlap.
+            if (previousInk)
+                x -= j.Tuck;
+            var y = (float)(d.WobbleAmplitudePx * Math.Sin(wobbleK * x + d.WobblePhase)) + drift.At(x);
+            var glyphPen = linePen with { WidthPx = Math.Max(0.8f, linePen.WidthPx + j.Weight) };
+            float advance;
+            if (j.PenRoll < d.PenSeparatorShare && PenSeparators.CanDraw(r))
+            {
+                advance = PenSeparators.Draw(ink, r, j.Transform(x, y, 0.1f * size), size, xHeight, glyphPen, rng);
+            }
+            else
+            {
+                advance = pen.Advance(r);
+                // Scale, lean and turn about the glyph's foot so jitter does not shift its spacing.
+                pen.Draw(ink, r, j.Transform(x, y, advance / 2), (float)d.StrokeWidthPx + j.Weight, glyphPen, rng);
+            }
+            x += advance * j.Scale + spacing + j.Gap;
+            previousInk = true;
         }
 
         // Shear leans letters (y grows downwards, so positive slant moves tops to the right),
@@ -126,37 +127,26 @@ public static class LineRenderer
         var shear = SKMatrix.CreateSkew((float)-Math.Tan(d.ShearDegrees * Math.PI / 180), 0);
         var turn = SKMatrix.CreateRotationDegrees((float)-d.RotationDegrees, x / 2, -size / 3);
         var global = turn.PreConcat(shear);
-        combined.Transform(global);
+        ink.Transform(global);
         var origin = global.MapPoint(0, 0);
         baseline = new Baseline(origin.X, origin.Y, d.RotationDegrees * Math.PI / 180);
         // Only spaces: no ink, but keep a blank crop the size of the line.
-        bounds = combined.IsEmpty
+        bounds = ink.IsEmpty
             ? global.MapRect(SKRect.Create(0, -size * 0.7f, Math.Max(x, 1), size))
-            : combined.Bounds;
-        return combined;
+            : ink.Bounds;
+        return ink;
     }
 
-    /// <summary>Ink coverage in [0, 1] from an antialiased fill, plus an outline stroke to thicken.</summary>
-    internal static float[] Rasterise(SKPath path, int w, int h, double strokeWidth)
+    /// <summary>
+    /// Pen pressure: the ink is multiplied by a smooth random field (Gaussian-smoothed noise about half an em
+    /// across), so strokes come out lighter where the hand pressed less; the heaviest parts keep full ink.
+    /// </summary>
+    private static void Press(float[] ink, int w, int h, double variation, double sigma, ref PixelNoise noise)
     {
-        if (path.IsEmpty)
-            return new float[w * h];
-        using var bmp = new SKBitmap(new SKImageInfo(w, h, SKColorType.Alpha8, SKAlphaType.Premul));
-        using (var canvas = new SKCanvas(bmp))
-        using (var paint = new SKPaint { IsAntialias = true, Color = SKColors.Black, Style = SKPaintStyle.Fill })
-        {
-            canvas.Clear(SKColors.Transparent);
-            canvas.DrawPath(path, paint);
-            if (strokeWidth > 0)
-            {
-                paint.Style = SKPaintStyle.Stroke;
-                paint.StrokeWidth = (float)strokeWidth;
-                paint.StrokeJoin = SKStrokeJoin.Round;
-                paint.StrokeCap = SKStrokeCap.Round;
-                canvas.DrawPath(path, paint);
-            }
-        }
-        return RasterOps.FromByteBitmap(bmp);
+        var field = RasterOps.SmoothField(ref noise, w, h, sigma);
+        var v = (float)variation;
+        for (var i = 0; i < ink.Length; i++)
+            ink[i] *= 1 - v * Math.Clamp(0.5f + 0.35f * field[i], 0f, 1f);
     }
 
     /// <summary>Ink thins out in stretches along the line, as when the pen ran dry.</summary>

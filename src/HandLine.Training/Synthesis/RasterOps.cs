@@ -165,6 +165,27 @@ internal static class RasterOps
         return Enlarge(g, gw, w, h, cellPx);
     }
 
+    /// <summary>
+    /// Elastic distortion (Simard, Steinkraus &amp; Platt 2003, "Best practices for convolutional neural networks
+    /// applied to visual document analysis", ICDAR): each pixel moves by a smooth random displacement field,
+    /// uniform noise smoothed by a Gaussian of <paramref name="sigma"/> and scaled to an RMS of
+    /// <paramref name="alpha"/> pixels. Returns the input itself when alpha is 0.
+    /// </summary>
+    public static float[] Elastic(float[] ink, int w, int h, double alpha, double sigma, ref PixelNoise noise)
+    {
+        if (alpha <= 0)
+            return ink;
+        var dx = SmoothField(ref noise, w, h, sigma);
+        var dy = SmoothField(ref noise, w, h, sigma);
+        var a = (float)alpha;
+        for (var i = 0; i < dx.Length; i++)
+        {
+            dx[i] *= a;
+            dy[i] *= a;
+        }
+        return Warp(ink, w, h, dx, dy);
+    }
+
     /// <summary>Moves each pixel by the displacement field, sampling bilinearly (outside = 0).</summary>
     public static float[] Warp(float[] src, int w, int h, float[] dx, float[] dy)
     {
