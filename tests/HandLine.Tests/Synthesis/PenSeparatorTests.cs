@@ -1,4 +1,5 @@
 using HandLine.Imaging;
+using HandLine.Scoring;
 using HandLine.Synthesis;
 
 namespace HandLine.Tests.Synthesis;
@@ -55,8 +56,9 @@ public sealed class PenSeparatorTests
             var ranges = new DegradationRanges { PenSeparatorShare = new Effect(1, 1, 1), DigitPenSeparatorShare = new Effect(1, 1, 1) };
             LineSynthesiser.Generate(new SynthesisRequest(SynthesisFixtures.Catalog, 3, dir, 9, texts, ranges,
                 new DigitSource(Digits.Value, MnistSplit.Validation)), null);
-            var manifest = File.ReadAllLines(Path.Combine(dir, LineSynthesiser.ManifestName)).Skip(1).Select(l => l.Split('\t')[1]);
-            Assert.Equal(texts, manifest);
+            var manifest = Manifest.Read(Path.Combine(dir, LineSynthesiser.ManifestName));
+            Assert.Empty(manifest.Errors);
+            Assert.Equal(texts, manifest.Entries.Select(e => e.Text));
         }
         finally
         {
