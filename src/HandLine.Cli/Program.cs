@@ -16,6 +16,11 @@ var root = new RootCommand("HandLine: transcribe scanned handwritten text lines,
     TuneDecodeCommand.Create(),
 };
 var parse = root.Parse(args);
+if (UnknownOptions.Check(parse) is { } unknown)
+{
+    Console.Error.WriteLine($"error: {unknown}");
+    return ExitCodes.Failed;
+}
 // Ctrl+C or SIGTERM cancels the token; the command then finishes its current item and writes consistent
 // outputs. The library's default would give up on it after 2 s and end the process mid-write.
 var exit = await parse.InvokeAsync(new InvocationConfiguration { ProcessTerminationTimeout = TimeSpan.FromMinutes(1) });
