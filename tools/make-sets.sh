@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Fonts, MNIST digits and the held-out sets that every training recipe and tools/measure-default.sh use:
-# fetches the fonts and digits, splits the fonts into training and held-out styles, and renders the validation
+# fetches the fonts (split by tools/fonts.tsv into training, validation and test families) and digits, renders the validation
 # and test sets (about a minute), then the training sets a recipe names. Idempotent: existing sets are kept.
 # Usage: tools/make-sets.sh [NAME:LINES:SEED]... (from any folder; works in the checkout's .cache). Each argument
 # is a training set: LINES ledger and register phrases in the training fonts; for names starting "mixed", the
@@ -21,25 +21,24 @@ if [ ! -s "$words" ]; then
 fi
 dotnet build src/HandLine.Cli -c Release -v q
 
-# Styles kept out of training: validation CER is measured on hands the model never saw.
-valid_fonts=(kalam patrick-hand shadows-into-light courgette Rufscript010)
-rm -rf "$work/fonts/train" "$work/fonts/valid"
-mkdir -p "$work/fonts/train" "$work/fonts/valid"
-for f in "$work"/fonts/debian/* "$work"/fonts/npm/*; do
-  name=$(basename "$f")
-  dest=train
-  for v in "${valid_fonts[@]}"; do [[ "$name" == "$v"* ]] && dest=valid; done
-  ln -s "$(realpath "$f")" "$work/fonts/$dest/$name"
-done
-echo "fonts: $(ls "$work/fonts/train" | wc -l) for training, $(ls "$work/fonts/valid" | wc -l) held out"
+# tools/fonts.tsv holds whole font families out: fonts/valid for validation (hands the model never saw while
+# training) and fonts/test for the card's test sets only; training renders from fonts/train.
+echo "fonts: $(find "$work/fonts/train" -mindepth 2 -maxdepth 2 -type d | wc -l) families for training," \
+  "$(find "$work/fonts/valid" -mindepth 2 -maxdepth 2 -type d | wc -l) for validation, $(find "$work/fonts/test" -mindepth 2 -maxdepth 2 -type d | wc -l) for testing"
 
 s=$work/synth
+# Sets rendered from another font catalogue may hold fonts that are now held out: render everything again.
+stamp=$(sha256sum tools/fonts.tsv | cut -c1-16)
+if [ -d "$s" ] && [ "$(cat "$s/fonts-catalogue" 2>/dev/null || true)" != "$stamp" ]; then
+  echo "tools/fonts.tsv changed since $s was rendered: removing its sets"; rm -rf "$s"
+fi
+mkdir -p "$s" && echo "$stamp" > "$s/fonts-catalogue"
 [ -s "$s/valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 12 --out "$s/valid"
 [ -s "$s/mnist-valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 22 --out "$s/mnist-valid"
-# Test sets for the card (tools/measure-default.sh): fresh lines from the same held-out fonts and digit samples,
-# never used to choose a model.
-[ -s "$s/test-fonts/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 14 --out "$s/test-fonts"
-[ -s "$s/test-mnist/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 23 --out "$s/test-mnist"
+# Test sets for the card (tools/measure-default.sh): lines in the test fonts, held out from both training and
+# validation, and the validation digit samples with separators in those fonts; never used to choose a model.
+[ -s "$s/test-fonts/lines.tsv" ] || hl synth --fonts "$work/fonts/test" --count 1000 --seed 14 --out "$s/test-fonts"
+[ -s "$s/test-mnist/lines.tsv" ] || hl synth --fonts "$work/fonts/test" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 23 --out "$s/test-mnist"
 # One validation manifest for both kinds of line (paths must stay inside the manifest's folder).
 # Both sets carry the same #columns header (path, text, family, group); it is kept once, before the entries.
 { echo "# validation: 1,000 font lines (held-out fonts) + 1,000 MNIST digit lines (samples 500-559)"
