@@ -1,20 +1,7 @@
 using System.CommandLine;
 using HandLine.Cli.Commands;
 
-var root = new RootCommand("HandLine: transcribe scanned handwritten text lines, score transcripts, train models.")
-{
-    TranscribeCommand.Create(),
-    ScoreCommand.Create(),
-    SynthCommand.Create(),
-    TrainCommand.Create(),
-    MergeCommand.Create(),
-    BenchBatchCommand.Create(),
-    LmCommand.Create(),
-    WordsCommand.Create(),
-    CalibrateCommand.Create(),
-    BenchDecodeCommand.Create(),
-    TuneDecodeCommand.Create(),
-};
+var root = CommandTree.Build();
 var parse = root.Parse(args);
 if (UnknownOptions.Check(parse) is { } unknown)
 {

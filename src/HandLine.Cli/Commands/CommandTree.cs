@@ -1,0 +1,26 @@
+using System.CommandLine;
+
+namespace HandLine.Cli.Commands;
+
+/// <summary>
+/// The whole command tree in one place, so that the executable and the documentation test parse command lines
+/// with the same parser: a documented command or option that stops existing fails a test, not a reader.
+/// </summary>
+internal static class CommandTree
+{
+    public static RootCommand Build() =>
+        new("HandLine: transcribe scanned handwritten text lines, score transcripts, train models.")
+        {
+            TranscribeCommand.Create(),
+            ScoreCommand.Create(),
+            SynthCommand.Create(),
+            TrainCommand.Create(),
+            MergeCommand.Create(),
+            BenchBatchCommand.Create(),
+            LmCommand.Create(),
+            WordsCommand.Create(),
+            CalibrateCommand.Create(),
+            BenchDecodeCommand.Create(),
+            TuneDecodeCommand.Create(),
+        };
+}
