@@ -73,6 +73,15 @@ public sealed class FontFace : IDisposable
     /// <summary>The style group of the family (its parent folder's name), or <see cref="Ungrouped"/>.</summary>
     public string Group { get; }
 
+    /// <summary>
+    /// Groups whose faces draw every letter as a capital (tools/fonts.tsv): a lowercase code point comes out as a
+    /// capital or small capital, so a line drawn in them is labelled in capitals, as a reader would transcribe it.
+    /// </summary>
+    public static readonly IReadOnlySet<string> CapitalGroups = new HashSet<string>(StringComparer.Ordinal) { "capitals", "small-caps" };
+
+    /// <summary>True when this face's group draws only capitals (see <see cref="CapitalGroups"/>).</summary>
+    public bool DrawsOnlyCapitals => CapitalGroups.Contains(Group);
+
     /// <summary>Full path the font was loaded from.</summary>
     public string Path { get; }
 

@@ -95,6 +95,8 @@ public static class LineSynthesiser
                 log?.WriteLine($"synthesis: line {i} skipped: {reason}");
                 continue;
             }
+            // The label says what is drawn: an all-capitals hand writes "Rent" as RENT.
+            if (font.DrawsOnlyCapitals) text = text.ToUpperInvariant();
             var path = string.Create(CultureInfo.InvariantCulture, $"{ImagesFolder}/{plans.Count:D6}.png");
             var degradation = Degradation.Sample(rng, ranges);
             plans.Add(new Plan(i, path, text, source, font, degradation, request.Digits is null ? null : PickSamples(text, request.Digits, rng)));
@@ -153,6 +155,7 @@ public static class LineSynthesiser
         var font = PickFont(text, fonts, rng, out _);
         if (font is null)
             return null;
+        if (font.DrawsOnlyCapitals) text = text.ToUpperInvariant();
         var d = Degradation.Sample(rng, ranges);
         return new SyntheticLine(text, font, d, LineRenderer.Render(text, font, d));
     }

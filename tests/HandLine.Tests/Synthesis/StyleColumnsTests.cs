@@ -44,6 +44,26 @@ public sealed class StyleColumnsTests : IDisposable
     }
 
     [Fact]
+    public void Lines_drawn_in_an_all_capitals_hand_are_labelled_in_capitals()
+    {
+        // Humor Sans draws lowercase code points with capital letterforms; in the "capitals" group its labels
+        // must say what is drawn, while a face of another group keeps the text's own case.
+        var root = Path.Combine(_dir, "caps");
+        foreach (var (group, family, file) in new[] { ("upright-print", "comic-neue", Comic), ("capitals", "humor-sans", Humor) })
+            File.Copy(Path.Combine(FontsDir, file), Path.Combine(Directory.CreateDirectory(Path.Combine(root, "train", group, family)).FullName, file));
+        using var catalog = FontCatalog.Load([root]);
+        string[] texts = ["Half a year's rent", "Recd of Mr Tolley 4s 6d"];
+        var summary = LineSynthesiser.Generate(new SynthesisRequest(catalog, 40, Path.Combine(_dir, "caps-set"), 5, texts), null);
+        var entries = Manifest.Read(summary.ManifestPath).Entries;
+        var capitals = entries.Where(e => e.Column("group") == "capitals").ToList();
+        var mixed = entries.Where(e => e.Column("group") == "upright-print").ToList();
+        Assert.NotEmpty(capitals);
+        Assert.NotEmpty(mixed);
+        Assert.All(capitals, e => Assert.Contains(e.Text, new[] { "HALF A YEAR'S RENT", "RECD OF MR TOLLEY 4S 6D" }));
+        Assert.All(mixed, e => Assert.Contains(e.Text, texts));
+    }
+
+    [Fact]
     public void Synthesis_writes_each_line_s_family_and_group()
     {
         using var catalog = FontCatalog.Load([Path.Combine(LayOut(), "valid")]);
