@@ -10,7 +10,9 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 work=.cache
-hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
+# Runs a private copy of the Release build (.cache/bin), so that rebuilding the checkout while a long render or
+# training runs cannot replace the files under it.
+hl() { "$work/bin/handline" "$@"; }
 
 bash tools/fetch-fonts.sh "$work/fonts"
 bash tools/fetch-mnist.sh "$work/mnist"
@@ -19,7 +21,17 @@ words=/usr/share/dict/british-english
 if [ ! -s "$words" ]; then
   apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq wbritish >/dev/null
 fi
+# Single-stroke Hershey faces (Debian hershey-fonts-data), drawn as pen paths: training only, one family per
+# Latin face in the group "single-stroke" (laid out as fonts/strokes/GROUP/FAMILY/ like the outline fonts).
+if [ ! -d /usr/share/hershey-fonts ]; then
+  apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq hershey-fonts-data >/dev/null
+fi
+for face in cursive futural futuram rowmand rowmans rowmant scriptc scripts timesi timesib timesr timesrb; do
+  mkdir -p "$work/fonts/strokes/single-stroke/hershey-$face"
+  ln -sf "/usr/share/hershey-fonts/$face.jhf" "$work/fonts/strokes/single-stroke/hershey-$face/$face.jhf"
+done
 dotnet build src/HandLine.Cli -c Release -v q
+rm -rf "$work/bin" && cp -r src/HandLine.Cli/bin/Release/net10.0 "$work/bin"
 
 # tools/fonts.tsv holds whole font families out: fonts/valid for validation (hands the model never saw while
 # training) and fonts/test for the card's test sets only; training renders from fonts/train.
@@ -33,11 +45,13 @@ if [ -d "$s" ] && [ "$(cat "$s/fonts-catalogue" 2>/dev/null || true)" != "$stamp
   echo "tools/fonts.tsv changed since $s was rendered: removing its sets"; rm -rf "$s"
 fi
 mkdir -p "$s" && echo "$stamp" > "$s/fonts-catalogue"
-[ -s "$s/valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --count 1000 --seed 12 --out "$s/valid"
+# Font lines carry the text mixture (--words) in validation and test too, so the figures do not reward a
+# memorised phrase grammar.
+[ -s "$s/valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --words "$words" --count 1000 --seed 12 --out "$s/valid"
 [ -s "$s/mnist-valid/lines.tsv" ] || hl synth --fonts "$work/fonts/valid" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 22 --out "$s/mnist-valid"
 # Test sets for the card (tools/measure-default.sh): lines in the test fonts, held out from both training and
 # validation, and the validation digit samples with separators in those fonts; never used to choose a model.
-[ -s "$s/test-fonts/lines.tsv" ] || hl synth --fonts "$work/fonts/test" --count 1000 --seed 14 --out "$s/test-fonts"
+[ -s "$s/test-fonts/lines.tsv" ] || hl synth --fonts "$work/fonts/test" --words "$words" --count 1000 --seed 14 --out "$s/test-fonts"
 [ -s "$s/test-mnist/lines.tsv" ] || hl synth --fonts "$work/fonts/test" --mnist "$work/mnist" --mnist-split Validation --count 1000 --seed 23 --out "$s/test-mnist"
 # One validation manifest for both kinds of line (paths must stay inside the manifest's folder).
 # Both sets carry the same #columns header (path, text, family, group); it is kept once, before the entries.
@@ -51,5 +65,5 @@ for set in "$@"; do
   extra=()
   [[ "$name" == mnist* ]] && extra=(--mnist "$work/mnist" --mnist-split Training)
   [[ "$name" == mixed* ]] && extra=(--words "$words")
-  [ -s "$s/$name/lines.tsv" ] || hl synth --fonts "$work/fonts/train" "${extra[@]}" --count "$lines" --seed "$seed" --out "$s/$name"
+  [ -s "$s/$name/lines.tsv" ] || hl synth --fonts "$work/fonts/train" "$work/fonts/strokes" "${extra[@]}" --count "$lines" --seed "$seed" --out "$s/$name"
 done

@@ -12,7 +12,7 @@ cd "$(dirname "$0")/.."
 part="${1:?usage: tools/train-default.sh PART [MINUTES]}"
 work=.cache
 s=$work/synth
-hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
+hl() { "$work/bin/handline" "$@"; } # the copy tools/make-sets.sh made
 
 # Each part: its training sets (NAME:LINES:SEED, as tools/make-sets.sh takes them), Adam step size and minutes.
 case "$part" in
@@ -24,6 +24,10 @@ case "$part" in
   # the small model's 140,000-line set of its stages 2-3 and new digit lines: 300,000 distinct font lines over
   # parts 1-3
   3) sets=(train2:140000:13 mnist-train3:50000:27); step=0.001; planned=150 ;;
+  # From part 4 on: the broad font pool of tools/fonts.tsv (199 training families in 8 style groups plus 12
+  # single-stroke faces, weighted by group), the text mixture (names "mixed"), hand-like variation within lines
+  # and pen-drawn separators; validation on 13 held-out families (leave-style-out), reported per family.
+  4) sets=(mixed-1:60000:31 mnist-train4:20000:33); step=0.0005; planned=120 ;;
   *) echo "tools/train-default.sh: part $part is not defined yet" >&2; exit 2 ;;
 esac
 minutes="${2:-$planned}"

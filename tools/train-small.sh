@@ -19,7 +19,7 @@ work=.cache
 first="${START_AT:-1}"
 stage_out() { if (( $1 == 1 )); then echo "$work/default.hlm"; else echo "$work/default$1.hlm"; fi; }
 runs() { (( first <= $1 )); } # STAGE: whether this run includes it
-hl() { dotnet run --project src/HandLine.Cli -c Release --no-build -- "$@"; }
+hl() { "$work/bin/handline" "$@"; } # the copy tools/make-sets.sh made
 
 # Training sets (tools/make-sets.sh renders them with the held-out sets): ledger and register phrases in the
 # training fonts, real MNIST digit lines. Stage 4 (fifth session, whose fresh checkout had lost .cache) has new

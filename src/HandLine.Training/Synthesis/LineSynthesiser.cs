@@ -190,7 +190,16 @@ public static class LineSynthesiser
         }
         // Symbols beyond the default set are drawn too: `train` adds them to a model's character set.
         reason = null;
-        return covering[rng.Next(covering.Count)];
+        var weights = covering.Select(fonts.Weight).ToArray();
+        // Equal weights keep the plain uniform draw, so sets rendered before weighting existed draw the same fonts.
+        if (weights.All(w => w == weights[0])) return covering[rng.Next(covering.Count)];
+        var target = rng.NextDouble() * weights.Sum();
+        for (var i = 0; i < covering.Count; i++)
+        {
+            target -= weights[i];
+            if (target < 0) return covering[i];
+        }
+        return covering[^1];
     }
 
     /// <summary>The family and group values of a line, in column order.</summary>

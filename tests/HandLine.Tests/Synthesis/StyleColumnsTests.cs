@@ -64,6 +64,23 @@ public sealed class StyleColumnsTests : IDisposable
     }
 
     [Fact]
+    public void A_large_group_gets_a_share_growing_as_the_root_of_its_size()
+    {
+        // Group "many" holds four families (each a copy of Comic Neue), group "few" one (Humor Sans): by family
+        // count "many" would draw 80 % of lines; weighted 1/√4 per family it draws √4 / (√4 + 1) = 2/3.
+        var root = Path.Combine(_dir, "weights");
+        foreach (var family in new[] { "a", "b", "c", "d" })
+            File.Copy(Path.Combine(FontsDir, Comic), Path.Combine(Directory.CreateDirectory(Path.Combine(root, "train", "many", family)).FullName, Comic));
+        File.Copy(Path.Combine(FontsDir, Humor), Path.Combine(Directory.CreateDirectory(Path.Combine(root, "train", "few", "e")).FullName, Humor));
+        using var catalog = FontCatalog.Load([root]);
+        Assert.Equal(0.5, catalog.Weight(catalog.Fonts.First(f => f.Group == "many")), 9);
+        Assert.Equal(1.0, catalog.Weight(catalog.Fonts.Single(f => f.Group == "few")), 9);
+        var summary = LineSynthesiser.Generate(new SynthesisRequest(catalog, 600, Path.Combine(_dir, "weights-set"), 8, ["Paid 4s 6d"]), null);
+        var share = Manifest.Read(summary.ManifestPath).Entries.Count(e => e.Column("group") == "many") / 600.0;
+        Assert.InRange(share, 2.0 / 3 - 0.06, 2.0 / 3 + 0.06); // binomial sd at n = 600 is 0.019; 3 sd
+    }
+
+    [Fact]
     public void Synthesis_writes_each_line_s_family_and_group()
     {
         using var catalog = FontCatalog.Load([Path.Combine(LayOut(), "valid")]);
