@@ -80,9 +80,17 @@ public sealed class Trainer
         while (state.Epoch < options.Epochs && !stopped)
         {
             var batches = EpochBatches(train, options, state.Epoch, batchesPerEpoch, batchesPerPass);
+            var epoch = state.Epoch;
+            // The next batch's lines are distorted and turned into features on another thread while the network
+            // trains on this one. Each line's distortion is seeded by its place in the run, so the order of work
+            // changes nothing.
+            Task<FeatureSequence[]> Prepare(int index) => Task.Run(() => Features(batches[index], options, epoch, index));
+            var pending = state.Batch < batches.Count ? Prepare(state.Batch) : null;
             for (var b = state.Batch; b < batches.Count; b++)
             {
-                var loss = Step(network, optimizer, batches[b], options, state.Epoch, b);
+                var features = pending!.GetAwaiter().GetResult();
+                pending = b + 1 < batches.Count ? Prepare(b + 1) : null;
+                var loss = Step(network, optimizer, batches[b], features, options, state.Epoch, b);
                 state = state with
                 {
                     Batch = b + 1,
@@ -204,12 +212,12 @@ public sealed class Trainer
         return nn.functional.ctc_loss(logProbs, targets, lengths, targetLengths, blank: 0, zero_infinity: true);
     }
 
-    internal static float Step(LineNetwork network, AdamOptimiser optimizer, IReadOnlyList<LineSample> batch, TrainingOptions options, int epoch, int index)
+    /// <summary>One optimiser step on a batch whose features (<see cref="Features"/>) are already made.</summary>
+    internal static float Step(LineNetwork network, AdamOptimiser optimizer, IReadOnlyList<LineSample> batch, IReadOnlyList<FeatureSequence> features, TrainingOptions options, int epoch, int index)
     {
         using var scope = NewDisposeScope();
         optimizer.ZeroGrad();
         network.train();
-        var features = Features(batch, options, epoch, index);
         Tensor loss;
         // Dropout draws from torch's generator: seed it per batch so a resumed run repeats the same masks.
         lock (TorchRuntime.RandomLock)
