@@ -13,6 +13,7 @@ internal static class CommandTree
         {
             TranscribeCommand.Create(),
             ScoreCommand.Create(),
+            SampleCommand.Create(),
             SynthCommand.Create(),
             TrainCommand.Create(),
             MergeCommand.Create(),

@@ -11,6 +11,12 @@ internal static class ExitCodes
     /// <summary>Nothing could be done: bad arguments, unreadable model or truth file.</summary>
     public const int Failed = 2;
 
+    /// <summary><c>score --max-cer</c>: the whole 95 % interval of the CER is above the threshold.</summary>
+    public const int ProofFailed = 3;
+
+    /// <summary><c>score --max-cer</c>: the 95 % interval contains the threshold; the sample cannot tell.</summary>
+    public const int ProofInconclusive = 4;
+
     /// <summary>Stopped by Ctrl+C after finishing the current item; reports are consistent.</summary>
     public const int Cancelled = 130;
 }

@@ -21,6 +21,27 @@ public static class RunReader
     /// <exception cref="InputException">Stage "run": no lines.jsonl, or a line that is not a valid record.</exception>
     public static IReadOnlyDictionary<string, string> ReadHypotheses(string runDir)
     {
+        var bySource = new Dictionary<string, SortedDictionary<int, string>>(StringComparer.Ordinal);
+        foreach (var record in ReadLines(runDir))
+        {
+            if (!bySource.TryGetValue(record.Source, out var lines))
+                bySource[record.Source] = lines = new SortedDictionary<int, string>();
+            lines[record.Line] = record.Text;
+        }
+
+        return bySource.ToDictionary(
+            pair => pair.Key,
+            pair => string.Join(' ', pair.Value.Values.Where(text => text.Length > 0)),
+            StringComparer.Ordinal);
+    }
+
+    /// <summary>
+    /// Every recognised line of the run in file order, with its confidence when the record has one (a run
+    /// written by <c>transcribe</c> always does).
+    /// </summary>
+    /// <exception cref="InputException">Stage "run": no lines.jsonl, a record that is not valid, or a line given twice.</exception>
+    public static IReadOnlyList<RunLine> ReadLines(string runDir)
+    {
         ArgumentException.ThrowIfNullOrWhiteSpace(runDir);
         var file = Path.Combine(runDir, LinesFileName);
         byte[] bytes;
@@ -36,27 +57,23 @@ public static class RunReader
             throw new InputException(file, Stage, reason, e);
         }
 
-        var bySource = new Dictionary<string, SortedDictionary<int, string>>(StringComparer.Ordinal);
+        var result = new List<RunLine>();
+        var seen = new HashSet<(string, int)>();
         var lineNumber = 0;
         foreach (var raw in ByteLines.Split(bytes))
         {
             lineNumber++;
             if (raw.Span.Trim(" \t"u8).Length == 0)
                 continue;
-            var (source, index, text) = ParseRecord(file, lineNumber, raw);
-            if (!bySource.TryGetValue(source, out var lines))
-                bySource[source] = lines = new SortedDictionary<int, string>();
-            if (!lines.TryAdd(index, text))
-                throw Error(file, lineNumber, $"source '{source}' has line {index} twice");
+            var record = ParseRecord(file, lineNumber, raw);
+            if (!seen.Add((record.Source, record.Line)))
+                throw Error(file, lineNumber, $"source '{record.Source}' has line {record.Line} twice");
+            result.Add(record);
         }
-
-        return bySource.ToDictionary(
-            pair => pair.Key,
-            pair => string.Join(' ', pair.Value.Values.Where(text => text.Length > 0)),
-            StringComparer.Ordinal);
+        return result;
     }
 
-    private static (string Source, int Line, string Text) ParseRecord(string file, int lineNumber, ReadOnlyMemory<byte> raw)
+    private static RunLine ParseRecord(string file, int lineNumber, ReadOnlyMemory<byte> raw)
     {
         try
         {
@@ -74,7 +91,9 @@ public static class RunReader
                 throw Error(file, lineNumber, "'line' must be a whole number, 0 or more");
             if (!root.TryGetProperty("text", out var text) || text.ValueKind != JsonValueKind.String)
                 throw Error(file, lineNumber, "'text' must be a string");
-            return (sourceText, index, text.GetString()!);
+            double? confidence = root.TryGetProperty("confidence", out var c) && c.ValueKind == JsonValueKind.Number
+                && c.TryGetDouble(out var value) && double.IsFinite(value) ? value : null;
+            return new RunLine(sourceText, index, text.GetString()!, confidence);
         }
         catch (JsonException e)
         {

@@ -56,6 +56,13 @@ public sealed class ScoreReport
     public int MissingLines { get; }
 
     /// <summary>
+    /// Per breakdown key, the group value of each line in <see cref="PerLine"/> order (empty unless grouped), so
+    /// figures per group (intervals, plots) can be drawn from the lines themselves.
+    /// </summary>
+    public IReadOnlyDictionary<string, IReadOnlyList<string>> GroupValues { get; init; } =
+        new Dictionary<string, IReadOnlyList<string>>(StringComparer.Ordinal);
+
+    /// <summary>
     /// The same lines split by one or more keys (empty unless asked for). Each breakdown must cover exactly
     /// these lines, so its groups add up to this report's counts.
     /// </summary>

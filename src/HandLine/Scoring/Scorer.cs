@@ -86,12 +86,10 @@ public static class Scorer
             return report;
 
         // Score keeps the input order, so line i is entry i.
-        var breakdowns = keys.Select(key => ScoreBreakdown.Of(key, report.PerLine.Select((line, i) =>
-        {
-            var entry = manifest.Entries[i];
-            return (line, entry.Column(key) ?? ScoreBreakdown.FolderOf(entry.RelativePath));
-        })));
-        return new ScoreReport(report.PerLine) { Breakdowns = breakdowns.ToArray() };
+        var values = keys.ToDictionary(key => key, IReadOnlyList<string> (key) => manifest.Entries
+            .Select(entry => entry.Column(key) ?? ScoreBreakdown.FolderOf(entry.RelativePath)).ToArray(), StringComparer.Ordinal);
+        var breakdowns = keys.Select(key => ScoreBreakdown.Of(key, report.PerLine.Select((line, i) => (line, values[key][i]))));
+        return new ScoreReport(report.PerLine) { Breakdowns = breakdowns.ToArray(), GroupValues = values };
     }
 
     /// <summary>
