@@ -52,11 +52,11 @@ public static class ProofReportHtml
         var ci = analysis.CerInterval;
         var (css, word, meaning) = analysis.Verdict switch
         {
-            AcceptanceVerdict.Pass => ("pass", "✔ PASS", "the whole 95 % interval is at or below the contract's CER"),
-            AcceptanceVerdict.Fail => ("fail", "✘ FAIL", "the whole 95 % interval is above the contract's CER"),
+            AcceptanceVerdict.Pass => ("pass", "✔ PASS", "The whole 95 % interval is at or below the contract's CER"),
+            AcceptanceVerdict.Fail => ("fail", "✘ FAIL", "The whole 95 % interval is above the contract's CER"),
             AcceptanceVerdict.Inconclusive => ("inconclusive", "? INCONCLUSIVE",
-                "the 95 % interval contains the contract's CER: this sample cannot tell; key more lines (see the plan below)"),
-            _ => ("none", "NO THRESHOLD", "no contract CER was given (score --max-cer), so there is no verdict"),
+                "The 95 % interval contains the contract's CER: this sample cannot tell; key more lines (score --plan says how many)"),
+            _ => ("none", "NO THRESHOLD", "No contract CER was given (score --max-cer), so there is no verdict"),
         };
         html.Append("<section id=\"verdict\" class=\"verdict ").Append(css).Append("\">\n")
             .Append("<p class=\"verdict-word\">").Append(word).Append("</p>\n<p class=\"headline\">CER <strong>")
@@ -111,7 +111,7 @@ public static class ProofReportHtml
                 var ci = analysis.GroupCerIntervals.GetValueOrDefault((b.Key, g.Value));
                 html.Append("<tr><td>").Append(E(g.Value.Length == 0 ? "(empty)" : g.Value)).Append("</td>")
                     .Append(CultureInfo.InvariantCulture, $"<td>{g.Lines}</td><td>{g.CharCounts.TruthLength}</td><td>{g.CharCounts.Distance}</td><td>")
-                    .Append(P(g.Cer)).Append("</td><td>").Append(ci is null ? "" : P(ci.Lower) + " – " + P(ci.Upper))
+                    .Append(P(g.Cer)).Append("</td><td>").Append(ci is null ? "" : g.Lines < 2 ? "one line: no interval" : P(ci.Lower) + " – " + P(ci.Upper))
                     .Append("</td><td>").Append(P(g.Wer)).Append("</td></tr>\n");
             }
             html.Append(CultureInfo.InvariantCulture, $"<tr class=\"pooled\"><td>Pooled</td><td>{b.Lines}</td><td>{b.CharCounts.TruthLength}</td><td>{b.CharCounts.Distance}</td><td>")
