@@ -13,6 +13,8 @@
 # Usage: tests/install/check-install.sh [REFERENCE_RUN]
 #   REFERENCE_RUN: a folder where the build transcribed fixtures/demo/lines.tsv (.ci/run passes out/demo); made
 #   here with `dotnet run` when not given.
+# tests/install/check-install.sh --dockerfile CONTEXT: the Dockerfile check alone (seconds), CONTEXT (relative to
+#   the repository) holding publish/linux-x64 as the Dockerfile's publish command makes it.
 set -euo pipefail
 repo=$(cd "$(dirname "$0")/../.." && pwd)
 cd "$repo"
@@ -40,6 +42,35 @@ check_patched() {
   fi
 }
 
+# The Dockerfile, read (it cannot be built here): the build context is the repository root with only the published
+# folder let in (.dockerignore). CONTEXT holds publish/linux-x64 as the Dockerfile expects it.
+check_dockerfile() {
+  local context=$1 copies=0 instruction rest w src dest inside entry
+  local -a words sources
+  while read -r instruction rest; do
+    read -r -a words <<< "$rest"
+    sources=()
+    for w in "${words[@]}"; do [[ $w == --* ]] || sources+=("$w"); done
+    dest=${sources[-1]}; unset 'sources[-1]'
+    for src in "${sources[@]}"; do
+      [ -e "$context/$src" ] || fail "Dockerfile copies $src, which is not in the build context"
+      grep -qx "!$src" .dockerignore || fail ".dockerignore does not let $src into the build context"
+      copies=$((copies + 1))
+      # Every path the Dockerfile names under the copy's destination must exist in what it copies.
+      for inside in $(grep -v '^#' Dockerfile | grep -oE "${dest%/}/[A-Za-z0-9._/-]+" | sort -u); do
+        [ -e "$context/$src/${inside#"${dest%/}"/}" ] || fail "Dockerfile names $inside, which $src lacks"
+      done
+      entry=$(grep -oE '^ENTRYPOINT \["[^"]+"' Dockerfile | grep -oE '"[^"]+"' | tr -d '"') || fail "the Dockerfile has no ENTRYPOINT"
+      [[ $entry == "${dest%/}"/* ]] || fail "the entry point $entry is not in the copied folder ${dest%/}"
+      [ -x "$context/$src/${entry#"${dest%/}"/}" ] || fail "the entry point $entry is not an executable of $src"
+    done
+  done < <(grep -E '^COPY ' Dockerfile)
+  [ "$copies" -gt 0 ] || fail "no COPY found in the Dockerfile"
+  grep -qE '^FROM debian:12-slim' Dockerfile || fail "the Dockerfile is not based on debian:12-slim"
+  grep -qE '^USER [1-9][0-9]*' Dockerfile || fail "the Dockerfile does not run as a numeric non-root user"
+  step "Dockerfile: $copies copied path(s) and every path it names in the image exist in the published folder"
+}
+
 # Runs an installed handline from a folder outside the checkout on a copy of the demo; checks the texts and that
 # --version names the model the run used.
 check_copy() {
@@ -60,6 +91,13 @@ check_copy() {
   grep -qE '^commit ([0-9a-f]{40}|unknown)$' "$work/version.txt" || fail "$name: --version prints no commit line"
   step "$name: same $(line_texts "$reference" | wc -l) line texts as the build's run; --version names model $id"
 }
+
+# tests/install/check-install.sh --dockerfile CONTEXT: only the Dockerfile check, against a folder already
+# published into CONTEXT/publish/linux-x64 (the repository root, after the publish command in docs/install.md).
+if [ "${1:-}" = --dockerfile ]; then
+  check_dockerfile "$(cd "${2:?give the build context folder}" && pwd)"
+  exit 0
+fi
 
 reference=${1:-}
 if [ -z "$reference" ]; then
@@ -99,30 +137,6 @@ step "self-contained publish: $(du -sm "$selfcontained" | cut -f1) MB in $(secon
 check_patched "$selfcontained/libLibTorchSharp.so"
 check_copy self-contained "$selfcontained/handline"
 
-# 3. The Dockerfile, read: the build context is the repository root with only the published folder let in.
-cp Dockerfile .dockerignore "$tmp/context/"
-copies=0
-while read -r instruction rest; do
-  [ "$instruction" = COPY ] || continue
-  read -r -a words <<< "$rest"
-  sources=()
-  for w in "${words[@]}"; do [[ $w == --* ]] || sources+=("$w"); done
-  dest=${sources[-1]}; unset 'sources[-1]'
-  for src in "${sources[@]}"; do
-    [ -e "$tmp/context/$src" ] || fail "Dockerfile copies $src, which the published folder's context lacks"
-    grep -qx "!$src" .dockerignore || fail ".dockerignore does not let $src into the build context"
-    copies=$((copies + 1))
-    # Every path the Dockerfile names under the copy's destination must exist in what it copies.
-    for inside in $(grep -v '^#' Dockerfile | grep -oE "${dest%/}/[A-Za-z0-9._/-]+" | sort -u); do
-      [ -e "$tmp/context/$src/${inside#"${dest%/}"/}" ] || fail "Dockerfile names $inside, which $src lacks"
-    done
-  done
-done < <(grep -E '^(COPY|ENTRYPOINT)' Dockerfile)
-[ "$copies" -gt 0 ] || fail "no COPY found in the Dockerfile"
-entry=$(grep -oE '^ENTRYPOINT \["[^"]+"' Dockerfile | grep -oE '"[^"]+"' | tr -d '"')
-[ -n "$entry" ] || fail "the Dockerfile has no ENTRYPOINT"
-[ -x "$selfcontained/${entry#/opt/handline/}" ] || fail "the entry point $entry is not an executable of the published folder"
-grep -qE '^FROM debian:12-slim' Dockerfile || fail "the Dockerfile is not based on debian:12-slim"
-grep -qE '^USER [1-9][0-9]*' Dockerfile || fail "the Dockerfile does not run as a numeric non-root user"
-step "Dockerfile: $copies copied path(s) and every path it names in the image exist in the published folder"
+# 3. The Dockerfile, read against the self-contained folder just published.
+check_dockerfile "$tmp/context"
 step "all install checks passed (version $version)"
