@@ -8,8 +8,9 @@ namespace HandLine.Cli.Commands;
 /// </summary>
 internal static class CommandTree
 {
-    public static RootCommand Build() =>
-        new("HandLine: transcribe scanned handwritten text lines, score transcripts, train models.")
+    public static RootCommand Build()
+    {
+        var root = new RootCommand("HandLine: transcribe scanned handwritten text lines, score transcripts, train models.")
         {
             TranscribeCommand.Create(),
             ScoreCommand.Create(),
@@ -24,4 +25,7 @@ internal static class CommandTree
             BenchDecodeCommand.Create(),
             TuneDecodeCommand.Create(),
         };
+        VersionReport.Attach(root);
+        return root;
+    }
 }

@@ -97,6 +97,7 @@ public sealed partial class DocumentationTests
     [InlineData("dotnet run --project src/HandLine.Cli -- score --truth t.tsv --run r --jsn && handline merge a b --out c", "score", "--jsn")]
     [InlineData("handline transcribe a \\\n  --out b \\\n  --sard 0/2", "transcribe", "--sard")]
     [InlineData("sbatch --wrap 'handline merge runs/shard-* --out m --qiet'", "merge", "--qiet")]
+    [InlineData("sbatch --wrap '/shared/apps/handline/handline merge runs/shard-* --out m --qiet'", "merge", "--qiet")]
     [InlineData("handline transcrib scans/ --out out", "transcrib", null)]
     public void AMisspeltCommandOrOptionIsCaught(string block, string command, string? option)
     {

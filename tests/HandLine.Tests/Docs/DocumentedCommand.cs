@@ -52,7 +52,7 @@ internal sealed partial record DocumentedCommand(string File, int Line, string T
         {
             var w = words[i];
             if (w.IsOperator) continue;
-            if (w.WasQuoted && w.Text.StartsWith("handline ", StringComparison.Ordinal))
+            if (w.WasQuoted && HoldsCommand(w.Text))
             {
                 foreach (var inner in InLine(file, line, w.Text)) yield return inner;
                 continue;
@@ -70,6 +70,15 @@ internal sealed partial record DocumentedCommand(string File, int Line, string T
             yield return new DocumentedCommand(file, line, text, args);
             i = end - 1;
         }
+    }
+
+    /// <summary>A quoted word that is a whole command line: "handline merge ..." or "/opt/app/handline merge ...".</summary>
+    private static bool HoldsCommand(string text)
+    {
+        var space = text.IndexOf(' ', StringComparison.Ordinal);
+        if (space <= 0) return false;
+        var first = text[..space];
+        return first == "handline" || first.EndsWith("/handline", StringComparison.Ordinal);
     }
 
     private static string[] Words(IReadOnlyList<ShellWord> words, int from, int count) =>
