@@ -66,6 +66,8 @@ internal sealed class AdamOptimiser : IDisposable
         using var oneMinusBeta2 = (1 - Beta2).ToScalar();
         using var rootCorrection2 = Math.Sqrt(correction2).ToScalar();
         using var epsilon = Epsilon.ToScalar();
+        using var one = 1.ToScalar(); // add_(x) alone would make this 1 from a C# number
+
         using var step = (-LearningRate / correction1).ToScalar();
         for (var i = 0; i < _parameters.Length; i++)
         {
@@ -73,7 +75,7 @@ internal sealed class AdamOptimiser : IDisposable
             if (grad is null) continue;
             _firstMoments[i].mul_(beta1).add_(grad, oneMinusBeta1);
             _secondMoments[i].mul_(beta2).addcmul_(grad, grad, oneMinusBeta2);
-            var denominator = _secondMoments[i].sqrt().div_(rootCorrection2).add_(epsilon);
+            var denominator = _secondMoments[i].sqrt().div_(rootCorrection2).add_(epsilon, one);
             _parameters[i].addcdiv_(_firstMoments[i], denominator, step);
         }
     }

@@ -11,6 +11,7 @@ namespace HandLine.Tests.Model;
 /// passes on several threads while another thread forces collections, and require every output to be exactly
 /// the one computed alone.
 /// </summary>
+[Collection(nameof(ScalarFinalisationCollection))]
 public sealed class ScalarLifetimeStressTests
 {
     private static readonly FeatureConfig Pixels = new(LineHeight: 8, FrameStride: 3);
@@ -59,6 +60,29 @@ public sealed class ScalarLifetimeStressTests
         Assert.Empty(failures);
     }
 
+    [Fact]
+    public void NoScalarIsLeftToTheFinaliserByInferenceOrTraining()
+    {
+        // The race above strikes rarely, so the stress tests may pass by luck. This test checks its cause
+        // directly: the runtime reports every object it finalises (the FinalizeObject event of the
+        // Microsoft-Windows-DotNETRuntime event source, .NET's documented GC events), and a Scalar that reaches
+        // the finaliser is one that libtorch could have been reading when it was freed.
+        using var model = LineModel.Create(CharacterSet.FromString("ab"), new FeatureConfig(LineHeight: 8, FrameStride: 1),
+            new NetworkConfig(Hidden: 6, Layers: 1, Dropout: 0.1, Convolution: true), seed: 3);
+        var lines = HandLine.Tests.Training.TrainerTests.PatternLines(8, seed: 2);
+        using var adam = new HandLine.Training.AdamOptimiser(model.Network.parameters(), 0.01);
+        var options = new HandLine.Training.TrainingOptions { Seed = 5, Augmentation = new HandLine.Training.Augmentation() };
+
+        using var finalised = new FinalisedObjects(typeof(TorchSharp.Scalar));
+        for (var step = 0; step < 5; step++)
+            model.Run(lines.Select(l => l.Features).ToArray());
+        var afterRun = finalised.Count();
+        for (var step = 0; step < 5; step++)
+            HandLine.Training.Trainer.Step(model.Network, adam, lines, HandLine.Training.Trainer.Features(lines, options, 0, step), options, 0, step);
+        var afterStep = finalised.Count();
+        Assert.Equal((0, 0), (afterRun, afterStep));
+    }
+
     /// <summary>
     /// Runs <paramref name="pass"/> on several threads while one more thread collects garbage and runs finalisers
     /// without pause; returns every failure (an exception or a message) seen.
@@ -96,4 +120,75 @@ public sealed class ScalarLifetimeStressTests
         collector.Join();
         return failures.ToArray();
     }
+
+    /// <summary>Counts the objects of one type that the runtime finalises while it is alive.</summary>
+    private sealed class FinalisedObjects : System.Diagnostics.Tracing.EventListener
+    {
+        private const string RuntimeSource = "Microsoft-Windows-DotNETRuntime";
+        private const long GcKeyword = 0x1;
+        private static readonly long MarkerTypeId = typeof(Marker).TypeHandle.Value.ToInt64();
+        private readonly long _typeId;
+        private int _count;
+        private int _markers;
+        private volatile bool _counting;
+
+        public FinalisedObjects(Type type)
+        {
+            _typeId = type.TypeHandle.Value.ToInt64();
+            // What other tests left for the finaliser is not this test's. The runtime's events reach a listener
+            // late, on another thread, so counting starts only once a marker finalised after that clean-up is seen.
+            Fence();
+            _counting = true;
+        }
+
+        /// <summary>Collects everything unreachable, runs its finalisers and returns the count so far.</summary>
+        public int Count()
+        {
+            Fence();
+            return Volatile.Read(ref _count);
+        }
+
+        /// <summary>Finalises everything unreachable plus a marker, and waits until the marker's event arrives.</summary>
+        private void Fence()
+        {
+            var seen = Volatile.Read(ref _markers);
+            DropMarker();
+            var clock = System.Diagnostics.Stopwatch.StartNew();
+            while (Volatile.Read(ref _markers) == seen)
+            {
+                if (clock.Elapsed > TimeSpan.FromSeconds(30)) throw new TimeoutException("the runtime reported no finalisation events");
+                GC.Collect();
+                GC.WaitForPendingFinalizers();
+                Thread.Sleep(20);
+            }
+        }
+
+        [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.NoInlining)]
+        private static void DropMarker() => _ = new Marker();
+
+        protected override void OnEventSourceCreated(System.Diagnostics.Tracing.EventSource source)
+        {
+            if (source.Name == RuntimeSource)
+                EnableEvents(source, System.Diagnostics.Tracing.EventLevel.Verbose, (System.Diagnostics.Tracing.EventKeywords)GcKeyword);
+        }
+
+        protected override void OnEventWritten(System.Diagnostics.Tracing.EventWrittenEventArgs e)
+        {
+            if (e.EventName?.StartsWith("FinalizeObject", StringComparison.Ordinal) != true || e.Payload is not { Count: > 0 }) return;
+            var typeId = e.Payload[0] switch { IntPtr p => p.ToInt64(), ulong u => unchecked((long)u), long l => l, _ => 0 };
+            if (typeId == MarkerTypeId) Interlocked.Increment(ref _markers);
+            else if (_counting && typeId == _typeId) Interlocked.Increment(ref _count);
+        }
+
+        private sealed class Marker
+        {
+            ~Marker()
+            {
+            }
+        }
+    }
 }
+
+/// <summary>Runs alone: the finaliser counts are process-wide, so no other test may make Scalars meanwhile.</summary>
+[CollectionDefinition(nameof(ScalarFinalisationCollection), DisableParallelization = true)]
+public sealed class ScalarFinalisationCollection;
