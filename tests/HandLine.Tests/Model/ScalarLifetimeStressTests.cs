@@ -24,7 +24,7 @@ public sealed class ScalarLifetimeStressTests
         var lines = Enumerable.Range(0, 4).Select(i => ModelFileTests.RandomFeatures(2 + i, Pixels.FrameDimension, i)).ToArray();
         var expected = lines.Select(l => model.Run(l).LogProbs).ToArray();
 
-        var failures = Stress(threads: 3, passesPerThread: 1500, pass: (thread, i) =>
+        var failures = Stress(threads: 3, passesPerThread: 1000, pass: (thread, i) =>
         {
             var k = (thread + i) % lines.Length;
             var got = model.Run(lines[k]).LogProbs;
@@ -50,7 +50,7 @@ public sealed class ScalarLifetimeStressTests
             return model.Network.parameters().SelectMany(p => p.data<float>().ToArray()).ToArray();
         }
         var expected = Train();
-        var failures = Stress(threads: 3, passesPerThread: 4, pass: (thread, i) =>
+        var failures = Stress(threads: 3, passesPerThread: 3, pass: (thread, i) =>
         {
             var got = Train();
             for (var k = 0; k < got.Length; k++)
