@@ -15,6 +15,8 @@ internal static class CommandTree
             TranscribeCommand.Create(),
             ScoreCommand.Create(),
             SampleCommand.Create(),
+            ReviewCommand.Create(),
+            CorrectCommand.Create(),
             SynthCommand.Create(),
             TrainCommand.Create(),
             MergeCommand.Create(),

@@ -2,10 +2,7 @@ using System.Globalization;
 using System.Text;
 using System.Text.Encodings.Web;
 using System.Text.Json;
-using HandLine.Imaging;
 using HandLine.Scoring;
-using SixLabors.ImageSharp;
-using SixLabors.ImageSharp.PixelFormats;
 
 namespace HandLine.Proof;
 
@@ -82,7 +79,7 @@ public static class ProofSampler
             if (!File.Exists(image))
                 throw new InputException(image, Stage, $"image of source '{line.Source}' not found under the images folder (--images)");
             var stem = Path.Combine(CropFolderName, (i + 1).ToString("0000", CultureInfo.InvariantCulture)).Replace('\\', '/');
-            var crop = linesPerSource[line.Source] == 1 ? null : TryCut(image, line.Line, linesPerSource[line.Source]);
+            var crop = linesPerSource[line.Source] == 1 ? null : LineCrops.TryCut(image, line.Line, linesPerSource[line.Source]);
             string cropPath;
             if (crop is null)
             {
@@ -113,34 +110,6 @@ public static class ProofSampler
         RelativePaths.TryCanonicalise(source, out var canonical, out var reason)
             ? canonical
             : throw new InputException(Path.Combine(runDir, RunReader.LinesFileName), "run", $"source '{source}': {reason}");
-
-    /// <summary>
-    /// Finds the lines of a page again with the default imaging settings and returns line <paramref name="index"/>
-    /// as PNG, or null when the page now splits into a different number of lines than the run read (the run may
-    /// have used other settings), so a wrong line is never handed out as the right one.
-    /// </summary>
-    private static byte[]? TryCut(string image, int index, int expectedLines)
-    {
-        try
-        {
-            var imaging = new ImagingOptions();
-            var regions = LineFinder.Split(ImageLoader.Load(image, imaging), imaging);
-            if (regions.Count != expectedLines || index >= regions.Count)
-                return null;
-            var region = regions[index].Image;
-            using var png = new Image<L8>(region.Width, region.Height);
-            for (var y = 0; y < region.Height; y++)
-                for (var x = 0; x < region.Width; x++)
-                    png[x, y] = new L8((byte)Math.Clamp(Math.Round(region[x, y] * 255), 0, 255));
-            using var buffer = new MemoryStream();
-            png.SaveAsPng(buffer);
-            return buffer.ToArray();
-        }
-        catch (InputException)
-        {
-            return null;
-        }
-    }
 
     private static string KeyingManifest(IReadOnlyList<SampledLine> lines, bool withMachineText)
     {

@@ -15,8 +15,20 @@ internal static class ReportImages
     {
         try
         {
-            var bytes = File.ReadAllBytes(path);
-            var type = Path.GetExtension(path).ToLowerInvariant() switch
+            return DataUri(File.ReadAllBytes(path), Path.GetExtension(path));
+        }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+        {
+            return null;
+        }
+    }
+
+    /// <summary>An image's bytes as a data URI (<paramref name="extension"/> names its format), or null when they are not an image.</summary>
+    public static string? DataUri(byte[] bytes, string extension)
+    {
+        try
+        {
+            var type = extension.ToLowerInvariant() switch
             {
                 ".png" => "image/png",
                 ".jpg" or ".jpeg" => "image/jpeg",
@@ -33,7 +45,7 @@ internal static class ReportImages
             image.SaveAsPng(png);
             return $"data:image/png;base64,{Convert.ToBase64String(png.ToArray())}";
         }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or UnknownImageFormatException or InvalidImageContentException)
+        catch (Exception e) when (e is UnknownImageFormatException or InvalidImageContentException)
         {
             return null;
         }
