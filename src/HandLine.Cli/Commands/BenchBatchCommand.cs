@@ -104,7 +104,7 @@ internal static class BenchBatchCommand
     private static (IReadOnlyList<byte[]> Tiles, string Note) Tiles(string? imagePath)
     {
         imagePath ??= FindDemoLine();
-        var line = imagePath is null ? DrawnLine() : ImageLoader.Load(imagePath, new ImagingOptions());
+        var line = imagePath is null ? DrawnLine() : ImageLoader.Load(imagePath, InputLimits.Default);
         var width = Math.Min(line.Width, 4 * line.Height);
         var span = line.Width - width;
         var tiles = new List<byte[]>();

@@ -76,7 +76,7 @@ internal static class TrainCommand
             }
             using var model = Open();
 
-            var limits = new ImagingOptions();
+            var limits = InputLimits.Default;
             var clock = System.Diagnostics.Stopwatch.StartNew();
             var keep = parse.GetValue(keepPrepared);
             IReadOnlyList<LineSample> trainSet, validSet;

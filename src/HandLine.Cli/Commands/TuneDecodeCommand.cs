@@ -41,7 +41,7 @@ internal static class TuneDecodeCommand
 
             TorchRuntime.SetThreads(parse.GetValue(threads));
             using var lineModel = ModelFile.Load(parse.GetValue(model) ?? DefaultModel.PathBesideExecutable);
-            var (prepared, modelSeconds) = PreparedLines.Run(lineModel, [parse.GetValue(truth)!], parse.GetValue(count));
+            var (prepared, modelSeconds) = SampledPosteriors.Run(lineModel, [parse.GetValue(truth)!], parse.GetValue(count));
             var lines = prepared.Sum(p => p.Lines.Count);
             var ci = CultureInfo.InvariantCulture;
             Console.WriteLine(string.Create(ci, $"{prepared.Count} sources, {lines} lines; model {1000 * modelSeconds / lines:F2} ms/line"));

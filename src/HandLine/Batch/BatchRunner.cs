@@ -5,6 +5,7 @@ using System.Text.Json;
 using System.Text.Json.Nodes;
 using HandLine.Batch.Journal;
 using HandLine.Imaging;
+using HandLine.Recognition;
 
 namespace HandLine.Batch;
 
@@ -114,7 +115,7 @@ internal static class BatchRunner
     private static (byte[] Raw, IReadOnlyList<LineResult> Lines, bool Reused) ReadOrReuse(
         BatchJob job, RunJournal journal, SourceImage source, int index)
     {
-        var bytes = ImageLoader.ReadFile(source.FullPath, job.Limits);
+        var bytes = ImageLoader.ReadFile(source.FullPath, job.Recogniser.Limits);
         var sha = Convert.ToHexStringLower(SHA256.HashData(bytes));
         if (journal.TryGet(JournalRecord.ReuseKey(source.Source, sha, job.ModelId, job.OptionsHash), out var entry))
         {
@@ -123,7 +124,7 @@ internal static class BatchRunner
             return (raw, entry.Record.Lines!, true);
         }
 
-        var results = job.Read(source, bytes);
+        var results = job.Recogniser.Read(bytes, source.Source, source.FullPath);
         var fresh = JournalCodec.Encode(new JournalRecord
         {
             Kind = JournalRecord.Done, Order = index, Source = source.Source, ImageSha256 = sha,

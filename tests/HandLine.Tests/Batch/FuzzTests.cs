@@ -1,5 +1,6 @@
 using System.Text;
 using HandLine.Batch;
+using HandLine.Recognition;
 using HandLine.Batch.Journal;
 using HandLine.Imaging;
 using HandLine.Scoring;
@@ -27,7 +28,7 @@ public sealed class FuzzTests : IDisposable
         var rng = new Random(20_240_611);
         var originals = new[] { "png", "jpeg", "gif", "bmp", "tiff" }.Select(Encode).ToArray();
         // Small limits keep a mutated header that claims a large image from costing time.
-        var options = new ImagingOptions { MaxPixels = 400_000, MaxFileBytes = 1 << 20 };
+        var options = new InputLimits { MaxPixels = 400_000, MaxFileBytes = 1 << 20 };
         int accepted = 0, refused = 0;
         for (var i = 0; i < 300; i++)
         {

@@ -7,7 +7,7 @@ namespace HandLine.Tests.Imaging;
 
 public sealed class ImageLoaderTests
 {
-    private static readonly ImagingOptions Defaults = new();
+    private static readonly InputLimits Defaults = InputLimits.Default;
 
     // 37×23, black left half, white right half: odd sizes catch swapped or padded dimensions.
     private static Image<Rgba32> Sample()

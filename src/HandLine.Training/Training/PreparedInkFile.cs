@@ -15,7 +15,7 @@ namespace HandLine.Training;
 /// imaging settings and the build of this library (any code change may change the ink). Anything else —
 /// another key, a damaged or truncated file — means the lines are prepared afresh and the file rewritten.
 /// </summary>
-public static class PreparedLines
+public static class PreparedInkFile
 {
     private static readonly byte[] Magic = "HLPREP1\n"u8.ToArray();
 
@@ -31,26 +31,27 @@ public static class PreparedLines
     /// (atomically; a failure to write is reported through <paramref name="note"/> and otherwise ignored).
     /// <paramref name="cancel"/> stops a preparation with an <see cref="OperationCanceledException"/>, writing nothing.
     /// </summary>
-    public static IReadOnlyList<Line> Load(string manifest, IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging,
+    public static IReadOnlyList<Line> Load(string manifest, IReadOnlyList<ManifestEntry> entries, LinePreparer preparer,
         int threads, bool keep, Action<string>? note = null, CancellationToken cancel = default)
     {
         ArgumentNullException.ThrowIfNull(manifest);
         ArgumentNullException.ThrowIfNull(entries);
-        ArgumentNullException.ThrowIfNull(imaging);
-        if (!keep) return Prepare(entries, imaging, threads, cancel);
+        ArgumentNullException.ThrowIfNull(preparer);
+        if (!keep) return Prepare(entries, preparer, threads, cancel);
 
         var path = CachePath(manifest);
-        var key = Key(entries, imaging);
-        var cached = TryRead(path, key, entries.Count, imaging.LineHeight);
+        var key = Key(entries, preparer);
+        var height = preparer.Features.LineHeight;
+        var cached = TryRead(path, key, entries.Count, height);
         if (cached is not null)
         {
             note?.Invoke($"read {entries.Count} prepared lines from {path}");
             return cached;
         }
-        var lines = Prepare(entries, imaging, threads, cancel);
+        var lines = Prepare(entries, preparer, threads, cancel);
         try
         {
-            Write(path, key, imaging.LineHeight, lines);
+            Write(path, key, height, lines);
             note?.Invoke($"kept {lines.Length} prepared lines in {path}");
         }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
@@ -60,7 +61,7 @@ public static class PreparedLines
         return lines;
     }
 
-    private static Line[] Prepare(IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging, int threads, CancellationToken cancel)
+    private static Line[] Prepare(IReadOnlyList<ManifestEntry> entries, LinePreparer preparer, int threads, CancellationToken cancel)
     {
         var lines = new Line[entries.Count];
         var parallel = new ParallelOptions
@@ -73,7 +74,8 @@ public static class PreparedLines
             var e = entries[i];
             try
             {
-                var line = LineNormaliser.Normalise(ImageLoader.Load(e.FullPath, imaging), imaging, e.FullPath);
+                // Transcription's stages, stopping before the line finder: a training image is one line already.
+                var line = preparer.Normalise(preparer.Load(e.FullPath), e.FullPath);
                 if (!line.HasInk)
                     throw new InputException(e.FullPath, "normalise", "no ink found: the image looks blank");
                 lines[i] = new Line(LineSample.ToBytes(line.Ink.Pixels), line.Ink.Width, null);
@@ -86,15 +88,17 @@ public static class PreparedLines
         return lines;
     }
 
-    private static string Key(IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging)
+    private static string Key(IReadOnlyList<ManifestEntry> entries, LinePreparer preparer)
     {
         using var hash = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
         void Add(string s) => hash.AppendData(Encoding.UTF8.GetBytes(s + "\n"));
-        // The code that prepares a line lives in the runtime library (LinePreparation) and the packing here: both
+        // The code that prepares a line lives in the runtime library (LinePreparer) and the packing here: both
         // identities key the file. Deterministic builds, no commit id in the version: same code, same id.
-        Add(typeof(LinePreparation).Assembly.ManifestModule.ModuleVersionId.ToString());
-        Add(typeof(PreparedLines).Assembly.ManifestModule.ModuleVersionId.ToString());
-        Add(JsonSerializer.Serialize(imaging));
+        Add(typeof(LinePreparer).Assembly.ManifestModule.ModuleVersionId.ToString());
+        Add(typeof(PreparedInkFile).Assembly.ManifestModule.ModuleVersionId.ToString());
+        Add(JsonSerializer.Serialize(preparer.Features));
+        Add(JsonSerializer.Serialize(preparer.Tuning));
+        Add(JsonSerializer.Serialize(preparer.Limits));
         foreach (var e in entries)
         {
             var info = new FileInfo(e.FullPath);
