@@ -21,12 +21,10 @@ internal static class BatchRunner
 {
     private const string InternalStage = "internal";
 
-    public static BatchCounts Run(
-        BatchJob job, BatchProgress progress, Func<BatchCounts, IDictionary<string, object?>> summaryFor, CancellationToken cancel)
+    public static BatchCounts Run(BatchJob job, BatchProgress progress, CancellationToken cancel)
     {
         ArgumentNullException.ThrowIfNull(job);
         ArgumentNullException.ThrowIfNull(progress);
-        ArgumentNullException.ThrowIfNull(summaryFor);
         job.Options.Validate();
         var outDir = job.OutDir;
         Directory.CreateDirectory(outDir);
@@ -90,16 +88,13 @@ internal static class BatchRunner
             progress.Finish();
 
             var counts = new BatchCounts(total, done, reused, lines, flagged, errors, cancelled);
-            var summary = summaryFor(counts);
-            summary[RunSummaryFields.Shard] = shard?.ToString();
-            summary[RunSummaryFields.OptionsHash] = job.OptionsHash;
-            summary[RunSummaryFields.InputsHash] = InputsHash(job.Sources);
-            summary["peak_memory_mb"] = PeakMemoryMb();
+            var summary = RunSummary.Of(counts, job.Settings, job.StartedUtc, job.Clock.Elapsed.TotalSeconds,
+                shard?.ToString(), job.OptionsHash, InputsHash(job.Sources), PeakMemoryMb());
 
             if (!cancelled)
             {
                 // The journal becomes this run's record: its sources and errors in report order, then the summary.
-                compacted.Add(new JournalRecord { Kind = JournalRecord.End, Summary = JsonSerializer.SerializeToNode(summary)!.AsObject() });
+                compacted.Add(new JournalRecord { Kind = JournalRecord.End, Summary = summary.ToJsonObject() });
                 journal.Dispose();
                 compacted.Commit();
             }

@@ -53,40 +53,14 @@ public static class TranscribeRun
         Directory.CreateDirectory(options.OutDir);
         using var model = ModelFile.Load(options.ModelPath);
         var recogniser = new Recogniser(model, options.Limits, options.Decoding, options.FlagBelow);
-        var decoding = recogniser.Decoder.Options;
         var (sources, inputErrors) = InputSet.Expand(inputs);
 
-        var job = new BatchJob(options.OutDir, sources, inputErrors, recogniser, model.Id,
-            OptionsFingerprint.Of(options), batch);
-        var c = BatchRunner.Run(job, new BatchProgress(progress, batch.Progress, batch),
-            counts => Summary(counts, clock.Elapsed.TotalSeconds), cancel);
+        var job = new BatchJob(options.OutDir, sources, inputErrors, recogniser,
+            RunSettings.Of(recogniser, options.FlagBelow, options.ModelPath), OptionsFingerprint.Of(options), batch, started, clock);
+        var c = BatchRunner.Run(job, new BatchProgress(progress, batch.Progress, batch), cancel);
         return new TranscribeSummary(c.Sources, c.Lines, c.Flagged, c.Errors, clock.Elapsed.TotalSeconds, model.Id)
         {
             Reused = c.Reused, Cancelled = c.Cancelled,
-        };
-
-        IDictionary<string, object?> Summary(BatchCounts c, double seconds) => new Dictionary<string, object?>
-        {
-            ["sources"] = c.Sources,
-            ["sources_done"] = c.Done,
-            ["lines"] = c.Lines,
-            ["flagged"] = c.Flagged,
-            ["errors"] = c.Errors,
-            ["flag_below"] = options.FlagBelow,
-            ["model_id"] = model.Id,
-            ["model_path"] = Path.GetFullPath(options.ModelPath),
-            ["decoder"] = recogniser.Decoder.Name,
-            ["beam"] = decoding.UsesBeam ? decoding.Beam : null,
-            ["lexicon"] = decoding.Lexicon?.Source,
-            ["lexicon_mode"] = decoding.Lexicon is null ? null : decoding.LexiconPenalty is null ? "strict" : "soft",
-            ["lexicon_weight"] = decoding.LexiconPenalty,
-            ["lm"] = decoding.LanguageModel?.Source,
-            ["lm_weight"] = decoding.LanguageModel is null ? null : decoding.LmWeight,
-            ["char_bonus"] = decoding.UsesBeam ? decoding.CharBonus : null,
-            ["started_utc"] = started.ToString("O"),
-            ["elapsed_seconds"] = Math.Round(seconds, 3),
-            ["lines_per_second"] = Math.Round(c.Lines / Math.Max(seconds, 1e-9), 2),
-            ["cancelled"] = c.Cancelled,
         };
     }
 }

@@ -125,10 +125,11 @@ public sealed class BadInputTests : IDisposable
             File.Copy(Path.Combine(BatchTestSupport.Demo, "ledger-06.png"), Path.Combine(scans, name));
         var (sources, inputErrors) = InputSet.Expand([scans]);
         var outDir = Path.Combine(_dir, "out");
-        var job = new BatchJob(outDir, sources, inputErrors, new FailsOn("b.png"),
-            "model-x", "options-y", new BatchOptions { Progress = ProgressStyle.None });
+        var settings = new RunSettings(0.5, "model-x", "/models/x.hlm", "greedy", null, null, null, null, null, null, null);
+        var job = new BatchJob(outDir, sources, inputErrors, new FailsOn("b.png"), settings, "options-y",
+            new BatchOptions { Progress = ProgressStyle.None }, DateTime.UtcNow, System.Diagnostics.Stopwatch.StartNew());
 
-        var counts = BatchRunner.Run(job, new BatchProgress(null, ProgressStyle.None, job.Options), _ => new Dictionary<string, object?>(), default);
+        var counts = BatchRunner.Run(job, new BatchProgress(null, ProgressStyle.None, job.Options), default);
 
         Assert.Equal((3, 2, 1), (counts.Sources, counts.Done, counts.Errors));
         var error = JsonDocument.Parse(File.ReadAllLines(Path.Combine(outDir, "errors.jsonl")).Single()).RootElement;
