@@ -1,4 +1,5 @@
 using System.CommandLine;
+using HandLine.Formats;
 using HandLine.Scoring;
 
 namespace HandLine.Cli.Commands;

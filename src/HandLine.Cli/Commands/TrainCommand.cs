@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Globalization;
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
 using HandLine.Scoring;

@@ -3,6 +3,7 @@ using System.Diagnostics;
 using System.Globalization;
 using HandLine.Calibration;
 using HandLine.Decoding;
+using HandLine.Formats;
 using HandLine.Language;
 using HandLine.Model;
 using HandLine.Scoring;

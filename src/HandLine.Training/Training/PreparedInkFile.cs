@@ -2,6 +2,7 @@ using System.Security.Cryptography;
 using System.Text;
 using System.Text.Json;
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Scoring;
 

@@ -1,5 +1,6 @@
 using System.Text;
 using HandLine.Batch;
+using HandLine.Formats;
 using HandLine.Recognition;
 using HandLine.Batch.Journal;
 using HandLine.Imaging;

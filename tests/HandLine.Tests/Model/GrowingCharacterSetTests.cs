@@ -1,5 +1,6 @@
 using HandLine.Decoding;
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
 using HandLine.Scoring;

@@ -1,3 +1,4 @@
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Scoring;
 using HandLine.Synthesis;

@@ -1,4 +1,5 @@
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
 using HandLine.Scoring;

@@ -1,6 +1,7 @@
 using System.Globalization;
 using HandLine.Decoding;
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
 using HandLine.Scoring;

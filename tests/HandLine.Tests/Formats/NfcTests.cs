@@ -1,7 +1,8 @@
+using HandLine.Formats;
 using HandLine.Scoring;
 using Xunit;
 
-namespace HandLine.Tests.Scoring;
+namespace HandLine.Tests.Formats;
 
 /// <summary>
 /// NFC cases from the Unicode Standard: UAX #15 (Unicode Normalization Forms) and chapter 3.12

@@ -1,8 +1,10 @@
 using System.Text;
+using HandLine.Formats;
 using HandLine.Scoring;
+using HandLine.Tests.Scoring;
 using Xunit;
 
-namespace HandLine.Tests.Scoring;
+namespace HandLine.Tests.Formats;
 
 public sealed class ManifestColumnsTests
 {
