@@ -1,6 +1,7 @@
 using System.Security.Cryptography;
 using System.Text;
 using System.Text.Json;
+using System.Text.Json.Serialization;
 using HandLine.Features;
 using HandLine.Formats;
 using HandLine.Imaging;
@@ -18,7 +19,14 @@ namespace HandLine.Training;
 /// </summary>
 public static class PreparedInkFile
 {
-    private static readonly byte[] Magic = "HLPREP1\n"u8.ToArray();
+    // A ContainerFile since HLPREP1 (which had no checksum); older files are simply prepared afresh.
+    private static readonly ContainerKind Kind = new("HLPREP02", "prepared lines", "prepared lines", "not a prepared-lines file");
+
+    /// <summary>The container's header: which preparation the lines come from, and their shape.</summary>
+    private sealed record Header(
+        [property: JsonPropertyName("key")] string Key,
+        [property: JsonPropertyName("count")] int Count,
+        [property: JsonPropertyName("height")] int Height);
 
     /// <summary>One manifest line: its ink (row-major, 0 paper .. 255 ink) or why it could not be prepared.</summary>
     public sealed record Line(byte[]? Ink, int Width, InputException? Failure);
@@ -113,43 +121,46 @@ public static class PreparedInkFile
         if (!File.Exists(path)) return null;
         try
         {
-            using var reader = new BinaryReader(new BufferedStream(File.OpenRead(path), 1 << 20));
-            if (!reader.ReadBytes(Magic.Length).AsSpan().SequenceEqual(Magic) || reader.ReadString() != key) return null;
-            if (reader.ReadInt32() != count || reader.ReadInt32() != height) return null;
-            var lines = new Line[count];
-            for (var i = 0; i < count; i++)
+            return ContainerFile.Read(path, Kind, c =>
             {
-                if (reader.ReadBoolean())
+                var header = JsonSerializer.Deserialize<Header>(c.Header);
+                if (header is null || header.Key != key || header.Count != count || header.Height != height) return null;
+                var reader = c.Payload;
+                var lines = new Line[count];
+                for (var i = 0; i < count; i++)
                 {
-                    var width = reader.ReadInt32();
-                    if (width < 1 || width > 1_000_000) return null;
-                    var ink = reader.ReadBytes(width * height);
-                    if (ink.Length != width * height) return null;
-                    lines[i] = new Line(ink, width, null);
+                    if (reader.ReadBoolean())
+                    {
+                        var width = reader.ReadInt32();
+                        if (width < 1 || (long)width * height > c.PayloadLength) return null;
+                        var ink = reader.ReadBytes(width * height);
+                        if (ink.Length != width * height) return null;
+                        lines[i] = new Line(ink, width, null);
+                    }
+                    else
+                    {
+                        var (file, stage, reason) = (reader.ReadString(), reader.ReadString(), reader.ReadString());
+                        lines[i] = new Line(null, 0, new InputException(file, stage, reason));
+                    }
                 }
-                else
-                {
-                    var (file, stage, reason) = (reader.ReadString(), reader.ReadString(), reader.ReadString());
-                    lines[i] = new Line(null, 0, new InputException(file, stage, reason));
-                }
-            }
-            return reader.BaseStream.Position == reader.BaseStream.Length ? lines : null;
+                return lines;
+            });
         }
-        catch (Exception e) when (e is IOException or EndOfStreamException or FormatException)
+        catch (InputException)
         {
-            return null; // damaged or truncated: prepare afresh
+            return null; // another key, or damaged or truncated: prepare afresh
+        }
+        catch (IOException)
+        {
+            return null;
         }
     }
 
     private static void Write(string path, string key, int height, IReadOnlyList<Line> lines)
     {
-        var temp = $"{path}.{Environment.ProcessId}.tmp"; // runs started together may all write it
-        using (var writer = new BinaryWriter(new BufferedStream(File.Create(temp), 1 << 20)))
+        var header = JsonSerializer.SerializeToUtf8Bytes(new Header(key, lines.Count, height));
+        ContainerFile.Write(path, Kind, header, writer =>
         {
-            writer.Write(Magic);
-            writer.Write(key);
-            writer.Write(lines.Count);
-            writer.Write(height);
             foreach (var l in lines)
             {
                 writer.Write(l.Ink is not null);
@@ -165,7 +176,6 @@ public static class PreparedInkFile
                     writer.Write(l.Failure.Reason);
                 }
             }
-        }
-        File.Move(temp, path, overwrite: true);
+        });
     }
 }
