@@ -2,7 +2,6 @@ using System.CommandLine;
 using System.Globalization;
 using System.Text.Json;
 using HandLine.Calibration;
-using HandLine.Formats;
 
 namespace HandLine.Cli.Commands;
 

@@ -1,5 +1,4 @@
 using System.CommandLine;
-using HandLine.Formats;
 using HandLine.Scoring;
 
 namespace HandLine.Cli.Commands;

@@ -4,7 +4,6 @@ using HandLine.Features;
 using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
-using HandLine.Scoring;
 using HandLine.Training;
 
 namespace HandLine.Cli.Commands;

@@ -83,21 +83,21 @@ internal static class TuneDecodeCommand
         {
             if (beam <= 1) { yield return DecodingOptions.Greedy; continue; }
             foreach (var mode in modes)
-            foreach (var weight in weights)
-            foreach (var bonus in bonusValues)
-            {
-                var options = new DecodingOptions
-                {
-                    Beam = beam,
-                    Lexicon = mode == "off" ? null : words,
-                    LexiconPenalty = mode is "off" or "strict" ? null : Number(mode, "--lexicon-modes"),
-                    LanguageModel = weight > 0 ? lm : null,
-                    LmWeight = weight > 0 ? weight : new DecodingOptions().LmWeight,
-                    CharBonus = bonus,
-                };
-                options.Validate();
-                yield return options;
-            }
+                foreach (var weight in weights)
+                    foreach (var bonus in bonusValues)
+                    {
+                        var options = new DecodingOptions
+                        {
+                            Beam = beam,
+                            Lexicon = mode == "off" ? null : words,
+                            LexiconPenalty = mode is "off" or "strict" ? null : Number(mode, "--lexicon-modes"),
+                            LanguageModel = weight > 0 ? lm : null,
+                            LmWeight = weight > 0 ? weight : new DecodingOptions().LmWeight,
+                            CharBonus = bonus,
+                        };
+                        options.Validate();
+                        yield return options;
+                    }
         }
     }
 

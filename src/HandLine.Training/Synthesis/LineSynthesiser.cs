@@ -4,8 +4,6 @@ using System.Text.Encodings.Web;
 using System.Text.Json;
 using HandLine.Formats;
 using HandLine.Imaging;
-using HandLine.Model;
-using HandLine.Scoring;
 
 namespace HandLine.Synthesis;
 

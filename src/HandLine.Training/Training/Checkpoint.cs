@@ -3,7 +3,6 @@ using System.Text.Json;
 using System.Text.Json.Serialization;
 using HandLine.Formats;
 using HandLine.Model;
-using TorchSharp.Modules;
 
 namespace HandLine.Training;
 

@@ -4,8 +4,6 @@ using System.Text.Json;
 using System.Text.Json.Serialization;
 using HandLine.Features;
 using HandLine.Formats;
-using HandLine.Imaging;
-using HandLine.Scoring;
 
 namespace HandLine.Training;
 

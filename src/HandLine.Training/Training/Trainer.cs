@@ -1,11 +1,8 @@
 using System.Diagnostics;
 using System.Globalization;
-using HandLine.Decoding;
 using HandLine.Features;
 using HandLine.Model;
 using HandLine.Scoring;
-using TorchSharp;
-using TorchSharp.Modules;
 using static TorchSharp.torch;
 
 namespace HandLine.Training;
@@ -168,9 +165,12 @@ public sealed class Trainer
         var lr = !progress && sinceBest % options.PlateauEpochs == 0 ? state.LearningRate / 2 : state.LearningRate;
         return state with
         {
-            Epoch = state.Epoch + 1, Batch = 0, BestCer = Math.Min(cer, state.BestCer),
+            Epoch = state.Epoch + 1,
+            Batch = 0,
+            BestCer = Math.Min(cer, state.BestCer),
             BestLoss = Math.Min(validLoss, state.BestLoss ?? double.PositiveInfinity),
-            EpochsSinceBest = sinceBest, LearningRate = lr,
+            EpochsSinceBest = sinceBest,
+            LearningRate = lr,
         };
     }
 

@@ -2,7 +2,6 @@ using HandLine.Features;
 using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
-using HandLine.Scoring;
 
 namespace HandLine.Training;
 

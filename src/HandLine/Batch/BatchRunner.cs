@@ -1,8 +1,6 @@
 using System.Diagnostics;
 using System.Security.Cryptography;
 using System.Text;
-using System.Text.Json;
-using System.Text.Json.Nodes;
 using HandLine.Batch.Journal;
 using HandLine.Imaging;
 using HandLine.Recognition;

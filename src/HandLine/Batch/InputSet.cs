@@ -1,5 +1,4 @@
 using HandLine.Formats;
-using HandLine.Scoring;
 
 namespace HandLine.Batch;
 

@@ -1,4 +1,3 @@
-using HandLine.Decoding;
 using HandLine.Recognition;
 
 namespace HandLine.Batch;

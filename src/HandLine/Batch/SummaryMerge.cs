@@ -44,8 +44,17 @@ internal static class SummaryMerge
     /// <summary>The fields that must be equal in every shard: all but counts, measurements, model path and shard.</summary>
     private static JsonObject MustAgree(RunSummary s) => (s with
     {
-        Sources = 0, SourcesDone = 0, Lines = 0, Flagged = 0, Errors = 0,
-        ModelPath = "", StartedUtc = "", ElapsedSeconds = 0, LinesPerSecond = 0, PeakMemoryMb = 0, Shard = null,
+        Sources = 0,
+        SourcesDone = 0,
+        Lines = 0,
+        Flagged = 0,
+        Errors = 0,
+        ModelPath = "",
+        StartedUtc = "",
+        ElapsedSeconds = 0,
+        LinesPerSecond = 0,
+        PeakMemoryMb = 0,
+        Shard = null,
     }).ToJsonObject();
 
     private static string Show(JsonNode? node) => node?.ToJsonString() ?? "null";

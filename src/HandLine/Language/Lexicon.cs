@@ -1,7 +1,6 @@
 using System.Globalization;
 using System.Text;
 using HandLine.Formats;
-using HandLine.Scoring;
 
 namespace HandLine.Language;
 

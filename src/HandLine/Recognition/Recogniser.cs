@@ -80,7 +80,8 @@ public sealed class Recogniser : IImageRecogniser
         {
             var h = Decoder.Decode(posteriors[i]);
             results[i] = new LineResult(source, i, h.Text, h.Confidence, h.Confidence < _flagBelow, h.Chars,
-                lines[i].Line.DeskewDegrees, lines[i].Line.SlantDegrees) { Alternatives = h.Alternatives };
+                lines[i].Line.DeskewDegrees, lines[i].Line.SlantDegrees)
+            { Alternatives = h.Alternatives };
         }
         return results;
     }

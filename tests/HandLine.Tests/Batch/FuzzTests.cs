@@ -1,10 +1,9 @@
 using System.Text;
 using HandLine.Batch;
-using HandLine.Formats;
-using HandLine.Recognition;
 using HandLine.Batch.Journal;
+using HandLine.Formats;
 using HandLine.Imaging;
-using HandLine.Scoring;
+using HandLine.Recognition;
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
 
@@ -141,7 +140,8 @@ public sealed class FuzzTests : IDisposable
         {
             try { action(); }
             catch (Exception e) { thrown = e; }
-        }) { IsBackground = true };
+        })
+        { IsBackground = true };
         worker.Start();
         Assert.True(worker.Join(CaseLimit), $"case {caseNumber} took longer than {CaseLimit.TotalSeconds} s");
         return thrown;

@@ -1,7 +1,6 @@
 using System.Text.Json;
 using System.Text.Json.Nodes;
 using HandLine.Batch;
-using Xunit;
 
 namespace HandLine.Tests.Batch;
 

@@ -1,8 +1,6 @@
 using System.Text.Json;
 using HandLine.Batch;
 using HandLine.Formats;
-using HandLine.Scoring;
-using HandLine.Tests.Model;
 
 namespace HandLine.Tests.Batch;
 

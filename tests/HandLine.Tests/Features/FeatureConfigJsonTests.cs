@@ -1,7 +1,6 @@
 using System.Text.Json;
 using HandLine.Features;
 using HandLine.Imaging;
-using Xunit;
 
 namespace HandLine.Tests.Features;
 

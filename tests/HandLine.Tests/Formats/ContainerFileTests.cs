@@ -4,7 +4,6 @@ using HandLine.Features;
 using HandLine.Formats;
 using HandLine.Model;
 using HandLine.Training;
-using Xunit;
 
 namespace HandLine.Tests.Formats;
 

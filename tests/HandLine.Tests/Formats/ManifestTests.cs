@@ -1,8 +1,6 @@
 using System.Text;
 using HandLine.Formats;
-using HandLine.Scoring;
 using HandLine.Tests.Scoring;
-using Xunit;
 
 namespace HandLine.Tests.Formats;
 

@@ -1,7 +1,6 @@
 using HandLine.Imaging;
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
-using Xunit;
 
 namespace HandLine.Tests.Imaging;
 

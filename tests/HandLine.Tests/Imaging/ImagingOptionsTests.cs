@@ -1,6 +1,5 @@
 using HandLine.Features;
 using HandLine.Imaging;
-using Xunit;
 
 namespace HandLine.Tests.Imaging;
 

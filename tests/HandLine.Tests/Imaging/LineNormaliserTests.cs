@@ -1,6 +1,5 @@
 using HandLine.Features;
 using HandLine.Imaging;
-using Xunit;
 using static HandLine.Tests.Imaging.ImagingTestSupport;
 
 namespace HandLine.Tests.Imaging;

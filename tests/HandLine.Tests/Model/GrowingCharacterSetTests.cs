@@ -1,9 +1,7 @@
 using HandLine.Decoding;
 using HandLine.Features;
 using HandLine.Formats;
-using HandLine.Imaging;
 using HandLine.Model;
-using HandLine.Scoring;
 using HandLine.Synthesis;
 using HandLine.Tests.Batch;
 using HandLine.Tests.Synthesis;

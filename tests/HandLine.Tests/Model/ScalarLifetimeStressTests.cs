@@ -74,7 +74,8 @@ public sealed class ScalarLifetimeStressTests
                 GC.Collect();
                 GC.WaitForPendingFinalizers();
             }
-        }) { IsBackground = true };
+        })
+        { IsBackground = true };
         collector.Start();
         var workers = Enumerable.Range(0, threads).Select(t => new Thread(() =>
         {

@@ -1,9 +1,7 @@
 using System.Text.Json;
 using HandLine.Formats;
-using HandLine.Scoring;
 using HandLine.Synthesis;
 using static HandLine.Tests.Synthesis.SynthesisFixtures;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 

@@ -2,7 +2,6 @@ using HandLine.Features;
 using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
-using HandLine.Scoring;
 using HandLine.Synthesis;
 using HandLine.Tests.Synthesis;
 using HandLine.Training;
