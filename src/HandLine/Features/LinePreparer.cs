@@ -26,7 +26,8 @@ public sealed class LinePreparer
         Tuning = tuning ?? new ImagingOptions();
         Limits = limits ?? InputLimits.Default;
         _finder = new LineFinder(Tuning);
-        _normaliser = new LineNormaliser(features, Tuning, Limits);
+        features.Validate();
+        _normaliser = new LineNormaliser(features.LineHeight, features.CorrectSlant, features.Binarisation, Tuning, Limits);
     }
 
     public FeatureConfig Features { get; }

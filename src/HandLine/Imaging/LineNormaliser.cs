@@ -1,5 +1,3 @@
-using HandLine.Features;
-
 namespace HandLine.Imaging;
 
 /// <summary>
@@ -21,24 +19,32 @@ public sealed class LineNormaliser
     private readonly ImagingOptions _options;
     private readonly int _maxLineWidth;
 
-    /// <param name="line">What the model fixes: line height, slant correction, binarisation.</param>
+    /// <summary>
+    /// The line settings are the model's: <see cref="Features.LinePreparer"/> passes those of its
+    /// <see cref="Features.FeatureConfig"/>, which owns them (this stage comes before features and takes plain values).
+    /// </summary>
+    /// <param name="lineHeight">Height of every normalised line, in pixels.</param>
+    /// <param name="correctSlant">Undo the shear of upright strokes.</param>
+    /// <param name="binarisation">Thresholding after contrast normalisation.</param>
     /// <param name="tuning">The imaging stage's tuning values; null for the defaults.</param>
     /// <param name="limits">Only <see cref="InputLimits.MaxLineWidth"/> applies here; null for the defaults.</param>
     /// <exception cref="ArgumentException">A setting is out of range, or the settings do not fit together.</exception>
-    public LineNormaliser(FeatureConfig line, ImagingOptions? tuning = null, InputLimits? limits = null)
+    public LineNormaliser(int lineHeight, bool correctSlant, BinarisationMethod binarisation, ImagingOptions? tuning = null, InputLimits? limits = null)
     {
-        ArgumentNullException.ThrowIfNull(line);
-        line.Validate();
+        if (lineHeight is < 8 or > 1024)
+            throw new ArgumentException($"line height {lineHeight} is outside 8..1024", nameof(lineHeight));
+        if (!Enum.IsDefined(binarisation))
+            throw new ArgumentException($"unknown binarisation {(int)binarisation}", nameof(binarisation));
         var options = tuning ?? new ImagingOptions();
         options.Validate();
         var maxLineWidth = (limits ?? InputLimits.Default).MaxLineWidth;
-        if (line.LineHeight - 2 * options.Margin < 4)
-            throw new ArgumentException($"ImagingOptions.Margin {options.Margin} leaves fewer than 4 rows of ink in a line {line.LineHeight} high.", nameof(tuning));
-        if (maxLineWidth < line.LineHeight)
-            throw new ArgumentException($"InputLimits.MaxLineWidth {maxLineWidth} is below the line height {line.LineHeight}.", nameof(limits));
-        _lineHeight = line.LineHeight;
-        _correctSlant = line.CorrectSlant;
-        _binarisation = line.Binarisation;
+        if (lineHeight - 2 * options.Margin < 4)
+            throw new ArgumentException($"ImagingOptions.Margin {options.Margin} leaves fewer than 4 rows of ink in a line {lineHeight} high.", nameof(tuning));
+        if (maxLineWidth < lineHeight)
+            throw new ArgumentException($"InputLimits.MaxLineWidth {maxLineWidth} is below the line height {lineHeight}.", nameof(limits));
+        _lineHeight = lineHeight;
+        _correctSlant = correctSlant;
+        _binarisation = binarisation;
         _options = options;
         _maxLineWidth = maxLineWidth;
     }

@@ -1,5 +1,6 @@
 using HandLine.Features;
 using HandLine.Imaging;
+using static HandLine.Tests.Imaging.ImagingTestSupport;
 
 namespace HandLine.Tests.Imaging;
 
@@ -16,7 +17,7 @@ public sealed class ImagingOptionsTests
         Assert.Equal(40, new FeatureConfig().LineHeight);
         Assert.Equal(2, o.Margin);
         Assert.Equal(BinarisationMethod.None, new FeatureConfig().Binarisation);
-        _ = new LineNormaliser(new FeatureConfig(), o, InputLimits.Default);
+        _ = NormaliserFor(new FeatureConfig(), o, InputLimits.Default);
     }
 
     public static TheoryData<ImagingOptions> Nonsense() =>
@@ -36,7 +37,7 @@ public sealed class ImagingOptionsTests
         Assert.ThrowsAny<ArgumentException>(options.Validate);
         // ... and by every stage made from it, once, when it is made.
         Assert.ThrowsAny<ArgumentException>(() => new LineFinder(options));
-        Assert.ThrowsAny<ArgumentException>(() => new LineNormaliser(new FeatureConfig(), options));
+        Assert.ThrowsAny<ArgumentException>(() => NormaliserFor(new FeatureConfig(), options));
         Assert.ThrowsAny<ArgumentException>(() => new LinePreparer(new FeatureConfig(), options));
     }
 
@@ -53,10 +54,12 @@ public sealed class ImagingOptionsTests
     public void Line_settings_that_do_not_fit_together_are_rejected_when_the_stage_is_made()
     {
         // The model's line settings: FeatureConfig alone.
-        Assert.ThrowsAny<ArgumentException>(() => new LineNormaliser(new FeatureConfig(LineHeight: 3)));
-        Assert.ThrowsAny<ArgumentException>(() => new LineNormaliser(new FeatureConfig(Binarisation: (BinarisationMethod)42)));
+        Assert.ThrowsAny<ArgumentException>(() => NormaliserFor(new FeatureConfig(LineHeight: 3)));
+        Assert.ThrowsAny<ArgumentException>(() => NormaliserFor(new FeatureConfig(Binarisation: (BinarisationMethod)42)));
+        Assert.ThrowsAny<ArgumentException>(() => new LinePreparer(new FeatureConfig(LineHeight: 3)));
+        Assert.ThrowsAny<ArgumentException>(() => new LinePreparer(new FeatureConfig(Binarisation: (BinarisationMethod)42)));
         // A margin leaving too few rows of ink in the model's line height, and a width limit below the height.
-        Assert.ThrowsAny<ArgumentException>(() => new LineNormaliser(new FeatureConfig(), new ImagingOptions { Margin = 19 }));
-        Assert.ThrowsAny<ArgumentException>(() => new LineNormaliser(new FeatureConfig(), null, new InputLimits { MaxLineWidth = 39 }));
+        Assert.ThrowsAny<ArgumentException>(() => NormaliserFor(new FeatureConfig(), new ImagingOptions { Margin = 19 }));
+        Assert.ThrowsAny<ArgumentException>(() => NormaliserFor(new FeatureConfig(), null, new InputLimits { MaxLineWidth = 39 }));
     }
 }

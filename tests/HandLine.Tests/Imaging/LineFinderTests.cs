@@ -46,8 +46,8 @@ public sealed class LineFinderTests
         var regions = new LineFinder(Defaults).Split(Stack(lines, 14));
         for (int i = 0; i < lines.Length; i++)
         {
-            int expected = new LineNormaliser(new FeatureConfig(), Defaults).Normalise(lines[i]).Ink.Width;
-            int actual = new LineNormaliser(new FeatureConfig(), Defaults).Normalise(regions[i].Image).Ink.Width;
+            int expected = NormaliserFor(new FeatureConfig(), Defaults).Normalise(lines[i]).Ink.Width;
+            int actual = NormaliserFor(new FeatureConfig(), Defaults).Normalise(regions[i].Image).Ink.Width;
             // One row more or less of ink height (a tiny page turn, resampling) changes the scale by ~4 %.
             Assert.InRange(actual, expected * 0.95, expected * 1.05);
         }
@@ -69,8 +69,8 @@ public sealed class LineFinderTests
         Assert.True(regions[0].Bottom < regions[1].Top && regions[1].Bottom < regions[2].Top);
         for (int i = 0; i < 3; i++)
         {
-            int expected = new LineNormaliser(new FeatureConfig(), Defaults).Normalise(lines[i]).Ink.Width;
-            int actual = new LineNormaliser(new FeatureConfig(), Defaults).Normalise(regions[i].Image).Ink.Width;
+            int expected = NormaliserFor(new FeatureConfig(), Defaults).Normalise(lines[i]).Ink.Width;
+            int actual = NormaliserFor(new FeatureConfig(), Defaults).Normalise(regions[i].Image).Ink.Width;
             Assert.InRange(actual, expected * 0.95, expected * 1.05);
         }
     }

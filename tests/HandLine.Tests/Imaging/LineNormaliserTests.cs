@@ -9,7 +9,7 @@ public sealed class LineNormaliserTests
     private static readonly ImagingOptions Defaults = new();
 
     private static NormalisedLine Normalise(GrayImage image, ImagingOptions tuning, FeatureConfig? line = null) =>
-        new LineNormaliser(line ?? new FeatureConfig(), tuning).Normalise(image);
+        NormaliserFor(line ?? new FeatureConfig(), tuning).Normalise(image);
 
     [Theory]
     [InlineData(-10.0)]
