@@ -45,7 +45,7 @@ public sealed class ScalarLifetimeStressTests
             using var adam = new HandLine.Training.AdamOptimiser(model.Network.parameters(), 0.01);
             var options = new HandLine.Training.TrainingOptions { Seed = 5 };
             for (var step = 0; step < 30; step++)
-                HandLine.Training.Trainer.Step(model.Network, adam, lines, options, epoch: 0, index: step);
+                HandLine.Training.TrainingStep.Step(model.Network, adam, lines, options, epoch: 0, index: step);
             return model.Network.parameters().SelectMany(p => p.data<float>().ToArray()).ToArray();
         }
         var expected = Train();
