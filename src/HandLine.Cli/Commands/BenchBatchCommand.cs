@@ -2,7 +2,7 @@ using System.CommandLine;
 using System.Diagnostics;
 using System.Globalization;
 using System.Reflection;
-using System.Text.Json;
+using HandLine.Batch;
 using HandLine.Features;
 using HandLine.Imaging;
 using HandLine.Model;
@@ -58,9 +58,8 @@ internal static class BenchBatchCommand
                     var seconds = clock.Elapsed.TotalSeconds;
                     if (code is not (ExitCodes.Ok or ExitCodes.CompletedWithErrors))
                         throw new InvalidOperationException($"the {count}-image run failed with exit code {code}");
-                    using var summary = JsonDocument.Parse(File.ReadAllText(Path.Combine(outDir, "summary.json")));
-                    var peak = summary.RootElement.GetProperty("peak_memory_mb").GetDouble();
-                    var lines = summary.RootElement.GetProperty("lines").GetInt64();
+                    var summary = RunSummary.Read(Path.Combine(outDir, "summary.json"));
+                    var (peak, lines) = (summary.PeakMemoryMb, summary.Lines);
                     results.Add((count, seconds, peak, lines));
                     Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
                         $"  {count,6} images: {lines,6} lines in {seconds,7:F1} s ({count / seconds,6:F1} images/s), peak RSS {peak,7:F1} MB"));
@@ -104,7 +103,7 @@ internal static class BenchBatchCommand
     private static (IReadOnlyList<byte[]> Tiles, string Note) Tiles(string? imagePath)
     {
         imagePath ??= FindDemoLine();
-        var line = imagePath is null ? DrawnLine() : ImageLoader.Load(imagePath, new ImagingOptions());
+        var line = imagePath is null ? DrawnLine() : ImageLoader.Load(imagePath, InputLimits.Default);
         var width = Math.Min(line.Width, 4 * line.Height);
         var span = line.Width - width;
         var tiles = new List<byte[]>();

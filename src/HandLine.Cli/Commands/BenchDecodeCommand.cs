@@ -32,7 +32,7 @@ internal static class BenchDecodeCommand
             var options = decoding.Build(parse);
             TorchRuntime.SetThreads(parse.GetValue(threads));
             using var lineModel = ModelFile.Load(parse.GetValue(model) ?? DefaultModel.PathBesideExecutable);
-            var (prepared, modelSeconds) = PreparedLines.Run(lineModel, parse.GetValue(inputs)!, parse.GetValue(count));
+            var (prepared, modelSeconds) = SampledPosteriors.Run(lineModel, parse.GetValue(inputs)!, parse.GetValue(count));
             var posteriors = prepared.SelectMany(p => p.Lines).ToArray();
 
             var greedy = new LineDecoder(lineModel.Charset, DecodingOptions.Greedy);

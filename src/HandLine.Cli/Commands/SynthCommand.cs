@@ -1,7 +1,6 @@
 using System.CommandLine;
 using System.Globalization;
 using HandLine.Model;
-using HandLine.Scoring;
 using HandLine.Synthesis;
 
 namespace HandLine.Cli.Commands;

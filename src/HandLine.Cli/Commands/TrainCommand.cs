@@ -1,9 +1,9 @@
 using System.CommandLine;
 using System.Globalization;
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
-using HandLine.Scoring;
 using HandLine.Training;
 
 namespace HandLine.Cli.Commands;
@@ -76,7 +76,7 @@ internal static class TrainCommand
             }
             using var model = Open();
 
-            var limits = new ImagingOptions();
+            var limits = InputLimits.Default;
             var clock = System.Diagnostics.Stopwatch.StartNew();
             var keep = parse.GetValue(keepPrepared);
             IReadOnlyList<LineSample> trainSet, validSet;

@@ -3,6 +3,7 @@ using System.Diagnostics;
 using System.Globalization;
 using HandLine.Calibration;
 using HandLine.Decoding;
+using HandLine.Formats;
 using HandLine.Language;
 using HandLine.Model;
 using HandLine.Scoring;
@@ -41,7 +42,7 @@ internal static class TuneDecodeCommand
 
             TorchRuntime.SetThreads(parse.GetValue(threads));
             using var lineModel = ModelFile.Load(parse.GetValue(model) ?? DefaultModel.PathBesideExecutable);
-            var (prepared, modelSeconds) = PreparedLines.Run(lineModel, [parse.GetValue(truth)!], parse.GetValue(count));
+            var (prepared, modelSeconds) = SampledPosteriors.Run(lineModel, [parse.GetValue(truth)!], parse.GetValue(count));
             var lines = prepared.Sum(p => p.Lines.Count);
             var ci = CultureInfo.InvariantCulture;
             Console.WriteLine(string.Create(ci, $"{prepared.Count} sources, {lines} lines; model {1000 * modelSeconds / lines:F2} ms/line"));
@@ -82,21 +83,21 @@ internal static class TuneDecodeCommand
         {
             if (beam <= 1) { yield return DecodingOptions.Greedy; continue; }
             foreach (var mode in modes)
-            foreach (var weight in weights)
-            foreach (var bonus in bonusValues)
-            {
-                var options = new DecodingOptions
-                {
-                    Beam = beam,
-                    Lexicon = mode == "off" ? null : words,
-                    LexiconPenalty = mode is "off" or "strict" ? null : Number(mode, "--lexicon-modes"),
-                    LanguageModel = weight > 0 ? lm : null,
-                    LmWeight = weight > 0 ? weight : new DecodingOptions().LmWeight,
-                    CharBonus = bonus,
-                };
-                options.Validate();
-                yield return options;
-            }
+                foreach (var weight in weights)
+                    foreach (var bonus in bonusValues)
+                    {
+                        var options = new DecodingOptions
+                        {
+                            Beam = beam,
+                            Lexicon = mode == "off" ? null : words,
+                            LexiconPenalty = mode is "off" or "strict" ? null : Number(mode, "--lexicon-modes"),
+                            LanguageModel = weight > 0 ? lm : null,
+                            LmWeight = weight > 0 ? weight : new DecodingOptions().LmWeight,
+                            CharBonus = bonus,
+                        };
+                        options.Validate();
+                        yield return options;
+                    }
         }
     }
 

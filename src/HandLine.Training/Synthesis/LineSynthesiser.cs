@@ -2,9 +2,8 @@ using System.Globalization;
 using System.Text;
 using System.Text.Encodings.Web;
 using System.Text.Json;
+using HandLine.Formats;
 using HandLine.Imaging;
-using HandLine.Model;
-using HandLine.Scoring;
 
 namespace HandLine.Synthesis;
 

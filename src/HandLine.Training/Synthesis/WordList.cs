@@ -1,6 +1,6 @@
 using System.Text;
+using HandLine.Formats;
 using HandLine.Model;
-using HandLine.Scoring;
 
 namespace HandLine.Synthesis;
 

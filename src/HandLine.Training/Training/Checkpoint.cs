@@ -1,8 +1,8 @@
 using System.Text;
 using System.Text.Json;
 using System.Text.Json.Serialization;
+using HandLine.Formats;
 using HandLine.Model;
-using TorchSharp.Modules;
 
 namespace HandLine.Training;
 
@@ -32,13 +32,18 @@ public sealed record TrainingState(
 }
 
 /// <summary>
-/// A checkpoint file: magic, JSON state, network weights, optimiser state. Written atomically, so a run killed
-/// while saving keeps the previous checkpoint.
+/// A checkpoint file, a <see cref="ContainerFile"/> of kind "HLCHECK3": its JSON header is the
+/// <see cref="TrainingState"/>, its payload the network weights and then the optimiser state. Written atomically,
+/// so a run killed while saving keeps the previous checkpoint; checksummed, so a damaged one is refused rather
+/// than resumed from. Checkpoints of the earlier layout (HLCHECK2: magic, length-prefixed JSON state, weights,
+/// optimiser state, no checksum) are still read, so a run under way continues.
 /// </summary>
 internal static class Checkpoint
 {
+    private static readonly ContainerKind Kind = new("HLCHECK3", "checkpoint", "checkpoint", "not a HandLine training checkpoint");
+
     // HLCHECK1 files held TorchSharp's own optimiser state; since HandLine has its own Adam they cannot resume.
-    private static readonly byte[] Magic = "HLCHECK2"u8.ToArray();
+    private static readonly byte[] SecondMagic = "HLCHECK2"u8.ToArray();
     private static readonly byte[] FirstMagic = "HLCHECK1"u8.ToArray();
 
     // The best CER starts as +Infinity, which plain JSON numbers cannot carry.
@@ -48,36 +53,52 @@ internal static class Checkpoint
 
     public static void Save(string path, TrainingState state, LineNetwork network, AdamOptimiser optimizer)
     {
-        using var ms = new MemoryStream();
-        using (var w = new BinaryWriter(ms, Encoding.UTF8, leaveOpen: true))
+        ContainerFile.Write(path, Kind, JsonSerializer.SerializeToUtf8Bytes(state, Json), w =>
         {
-            w.Write(Magic);
-            w.Write(JsonSerializer.Serialize(state, Json));
             network.save(w);
             optimizer.Save(w);
-        }
-        AtomicFile.WriteAllBytes(path, ms.ToArray());
+        });
     }
 
     public static TrainingState Load(string path, LineNetwork network, AdamOptimiser optimizer)
     {
         try
         {
-            using var r = new BinaryReader(File.OpenRead(path), Encoding.UTF8);
-            var magic = r.ReadBytes(Magic.Length);
+            var magic = new byte[SecondMagic.Length];
+            using (var peek = File.OpenRead(path))
+                peek.ReadAtLeast(magic, magic.Length, throwOnEndOfStream: false);
             if (magic.AsSpan().SequenceEqual(FirstMagic))
                 throw new InputException(path, "checkpoint", "this checkpoint was written by an older HandLine whose optimiser state cannot be read; delete it to start afresh (or continue from the saved model with --from)");
-            if (!magic.AsSpan().SequenceEqual(Magic))
-                throw new InputException(path, "checkpoint", "not a HandLine training checkpoint");
-            var state = JsonSerializer.Deserialize<TrainingState>(r.ReadString(), Json)
-                        ?? throw new InputException(path, "checkpoint", "checkpoint state is empty");
-            network.load(r, strict: true);
-            optimizer.Load(r);
-            return state;
+            if (magic.AsSpan().SequenceEqual(SecondMagic))
+                return LoadSecondLayout(path, network, optimizer);
+            return ContainerFile.Read(path, Kind, c =>
+            {
+                var state = JsonSerializer.Deserialize<TrainingState>(c.Header, Json)
+                            ?? throw new InputException(path, "checkpoint", "checkpoint state is empty");
+                network.load(c.Payload, strict: true);
+                optimizer.Load(c.Payload);
+                return state;
+            });
+        }
+        catch (InputException)
+        {
+            throw;
         }
         catch (Exception e) when (e is IOException or JsonException or ArgumentException or InvalidOperationException)
         {
             throw new InputException(path, "checkpoint", $"cannot resume from this checkpoint: {e.Message}", e);
         }
+    }
+
+    /// <summary>The HLCHECK2 layout, written before checkpoints became containers.</summary>
+    private static TrainingState LoadSecondLayout(string path, LineNetwork network, AdamOptimiser optimizer)
+    {
+        using var r = new BinaryReader(File.OpenRead(path), Encoding.UTF8);
+        r.ReadBytes(SecondMagic.Length);
+        var state = JsonSerializer.Deserialize<TrainingState>(r.ReadString(), Json)
+                    ?? throw new InputException(path, "checkpoint", "checkpoint state is empty");
+        network.load(r, strict: true);
+        optimizer.Load(r);
+        return state;
     }
 }

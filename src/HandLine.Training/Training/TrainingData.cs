@@ -1,7 +1,7 @@
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
-using HandLine.Scoring;
 
 namespace HandLine.Training;
 
@@ -18,22 +18,22 @@ public static class TrainingData
     public const string GroupColumn = Synthesis.LineSynthesiser.GroupColumn;
 
     /// <param name="keepPrepared">Keep each manifest's prepared lines in a file beside it and reuse them
-    /// (see <see cref="PreparedLines"/>).</param>
+    /// (see <see cref="PreparedInkFile"/>).</param>
     /// <param name="note">Where messages about kept prepared lines go.</param>
     /// <param name="cancel">Stops the preparation (it can take many minutes) with an
     /// <see cref="OperationCanceledException"/>; nothing is kept then.</param>
     public static (IReadOnlyList<LineSample> Samples, IReadOnlyList<InputException> Errors) Load(
-        IEnumerable<string> manifests, FeatureConfig features, CharacterSet charset, ImagingOptions limits, int threads = 0,
+        IEnumerable<string> manifests, FeatureConfig features, CharacterSet charset, InputLimits? limits = null, int threads = 0,
         bool keepPrepared = false, Action<string>? note = null, CancellationToken cancel = default)
     {
-        var imaging = LinePreparation.ImagingFor(features, limits);
+        var preparer = new LinePreparer(features, limits: limits);
         var errors = new List<InputException>();
         var samples = new List<LineSample>();
         foreach (var m in manifests)
         {
             var read = Manifest.Read(m);
             errors.AddRange(read.Errors);
-            var lines = PreparedLines.Load(m, read.Entries, imaging, threads, keepPrepared, note, cancel);
+            var lines = PreparedInkFile.Load(m, read.Entries, preparer, threads, keepPrepared, note, cancel);
             for (var i = 0; i < lines.Count; i++)
             {
                 var e = read.Entries[i];

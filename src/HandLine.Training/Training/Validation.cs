@@ -1,4 +1,5 @@
 using HandLine.Decoding;
+using HandLine.Formats;
 using HandLine.Model;
 using HandLine.Scoring;
 

@@ -1,10 +1,9 @@
 using System.Diagnostics;
 using System.Security.Cryptography;
 using System.Text;
-using System.Text.Json;
-using System.Text.Json.Nodes;
 using HandLine.Batch.Journal;
 using HandLine.Imaging;
+using HandLine.Recognition;
 
 namespace HandLine.Batch;
 
@@ -20,12 +19,10 @@ internal static class BatchRunner
 {
     private const string InternalStage = "internal";
 
-    public static BatchCounts Run(
-        BatchJob job, BatchProgress progress, Func<BatchCounts, IDictionary<string, object?>> summaryFor, CancellationToken cancel)
+    public static BatchCounts Run(BatchJob job, BatchProgress progress, CancellationToken cancel)
     {
         ArgumentNullException.ThrowIfNull(job);
         ArgumentNullException.ThrowIfNull(progress);
-        ArgumentNullException.ThrowIfNull(summaryFor);
         job.Options.Validate();
         var outDir = job.OutDir;
         Directory.CreateDirectory(outDir);
@@ -89,16 +86,13 @@ internal static class BatchRunner
             progress.Finish();
 
             var counts = new BatchCounts(total, done, reused, lines, flagged, errors, cancelled);
-            var summary = summaryFor(counts);
-            summary[RunSummaryFields.Shard] = shard?.ToString();
-            summary[RunSummaryFields.OptionsHash] = job.OptionsHash;
-            summary[RunSummaryFields.InputsHash] = InputsHash(job.Sources);
-            summary["peak_memory_mb"] = PeakMemoryMb();
+            var summary = RunSummary.Of(counts, job.Settings, job.StartedUtc, job.Clock.Elapsed.TotalSeconds,
+                shard?.ToString(), job.OptionsHash, InputsHash(job.Sources), PeakMemoryMb());
 
             if (!cancelled)
             {
                 // The journal becomes this run's record: its sources and errors in report order, then the summary.
-                compacted.Add(new JournalRecord { Kind = JournalRecord.End, Summary = JsonSerializer.SerializeToNode(summary)!.AsObject() });
+                compacted.Add(new JournalRecord { Kind = JournalRecord.End, Summary = summary.ToJsonObject() });
                 journal.Dispose();
                 compacted.Commit();
             }
@@ -114,7 +108,7 @@ internal static class BatchRunner
     private static (byte[] Raw, IReadOnlyList<LineResult> Lines, bool Reused) ReadOrReuse(
         BatchJob job, RunJournal journal, SourceImage source, int index)
     {
-        var bytes = ImageLoader.ReadFile(source.FullPath, job.Limits);
+        var bytes = ImageLoader.ReadFile(source.FullPath, job.Recogniser.Limits);
         var sha = Convert.ToHexStringLower(SHA256.HashData(bytes));
         if (journal.TryGet(JournalRecord.ReuseKey(source.Source, sha, job.ModelId, job.OptionsHash), out var entry))
         {
@@ -123,7 +117,7 @@ internal static class BatchRunner
             return (raw, entry.Record.Lines!, true);
         }
 
-        var results = job.Read(source, bytes);
+        var results = job.Recogniser.Read(bytes, source.Source, source.FullPath);
         var fresh = JournalCodec.Encode(new JournalRecord
         {
             Kind = JournalRecord.Done, Order = index, Source = source.Source, ImageSha256 = sha,

@@ -1,4 +1,4 @@
-using HandLine.Scoring;
+using HandLine.Formats;
 
 namespace HandLine.Batch;
 

@@ -1,5 +1,4 @@
 using System.Text.Json;
-using System.Text.Json.Nodes;
 using HandLine.Batch.Journal;
 
 namespace HandLine.Batch;
@@ -40,7 +39,7 @@ public static class RunMerge
         return Write(runs, outDir, merged, options.MaxJournalRecordBytes);
     }
 
-    private sealed record RunInfo(string Dir, string JournalPath, JsonObject? Summary);
+    private sealed record RunInfo(string Dir, string JournalPath, RunSummary? Summary);
 
     /// <summary>A merge input must be a finished run: its journal's last valid record is the summary.</summary>
     private static RunInfo Inspect(string dir, int maxRecordBytes, List<string> conflicts)
@@ -69,7 +68,15 @@ public static class RunMerge
             conflicts.Add($"{dir}: the run did not finish (interrupted or cancelled); rerun the same transcribe command with the same --out to complete it");
             return new RunInfo(dir, path, null);
         }
-        return new RunInfo(dir, path, last.Summary);
+        try
+        {
+            return new RunInfo(dir, path, RunSummary.FromJson(last.Summary!));
+        }
+        catch (JsonException e)
+        {
+            conflicts.Add($"{dir}: the run's summary is not one this build writes (made by a different build?): {e.Message}");
+            return new RunInfo(dir, path, null);
+        }
     }
 
     private static void CheckShards(IReadOnlyList<RunInfo> runs, List<string> conflicts)
@@ -111,7 +118,7 @@ public static class RunMerge
         }
     }
 
-    private static MergeResult Write(IReadOnlyList<RunInfo> runs, string outDir, JsonObject summary, int maxRecordBytes)
+    private static MergeResult Write(IReadOnlyList<RunInfo> runs, string outDir, RunSummary summary, int maxRecordBytes)
     {
         Directory.CreateDirectory(outDir);
         using var runLock = RunLock.Acquire(outDir);
@@ -136,9 +143,9 @@ public static class RunMerge
                     errors++;
                 }
             }
-            compacted.Add(new JournalRecord { Kind = JournalRecord.End, Summary = summary });
+            compacted.Add(new JournalRecord { Kind = JournalRecord.End, Summary = summary.ToJsonObject() });
             compacted.Commit();
-            reports.Complete(summary.ToDictionary(p => p.Key, p => (object?)p.Value?.DeepClone()));
+            reports.Complete(summary);
         }
         return new MergeResult(runs.Count, sources, lines, errors, []);
     }

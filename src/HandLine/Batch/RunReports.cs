@@ -2,6 +2,7 @@ using System.Globalization;
 using System.Text;
 using System.Text.Encodings.Web;
 using System.Text.Json;
+using HandLine.Recognition;
 
 namespace HandLine.Batch;
 
@@ -80,15 +81,14 @@ internal sealed class RunReports : IDisposable
         }, JsonLine));
 
     /// <summary>Closes the streams and moves every report into place, the summary last.</summary>
-    public void Complete(IDictionary<string, object?> summary)
+    public void Complete(RunSummary summary)
     {
         foreach (var f in _files)
         {
             f.Writer.Dispose();
             File.Move(f.Temp, f.Final, overwrite: true);
         }
-        var json = JsonSerializer.Serialize(summary, new JsonSerializerOptions(JsonLine) { WriteIndented = true });
-        AtomicFile.WriteAllText(Path.Combine(_dir, "summary.json"), json + "\n");
+        AtomicFile.WriteAllText(Path.Combine(_dir, "summary.json"), summary.ToJson());
     }
 
     public void Dispose()

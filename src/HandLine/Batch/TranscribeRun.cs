@@ -2,6 +2,7 @@ using System.Diagnostics;
 using HandLine.Decoding;
 using HandLine.Imaging;
 using HandLine.Model;
+using HandLine.Recognition;
 
 namespace HandLine.Batch;
 
@@ -10,16 +11,11 @@ public sealed record TranscribeOptions(
     string OutDir,
     string ModelPath,
     double FlagBelow = TranscribeOptions.DefaultFlagBelow,
-    ImagingOptions? Imaging = null,
+    InputLimits? Limits = null,
     DecodingOptions? Decoding = null)
 {
-    /// <summary>
-    /// Lines whose confidence is below this are flagged for review. Set by `handline calibrate --catch 0.9` on the
-    /// bundled model's 1,000 validation lines (unseen fonts, default beam 8): 0.63935 catches 90% of character
-    /// errors (it flags 40% of lines), rounded up to 0.64.
-    /// Re-measure for other models.
-    /// </summary>
-    public const double DefaultFlagBelow = 0.64;
+    /// <summary>Lines whose confidence is below this are flagged for review (see <see cref="Recogniser.DefaultFlagBelow"/>).</summary>
+    public const double DefaultFlagBelow = Recogniser.DefaultFlagBelow;
 }
 
 /// <summary>Counts for the run summary.</summary>
@@ -56,41 +52,15 @@ public static class TranscribeRun
         var started = DateTime.UtcNow;
         Directory.CreateDirectory(options.OutDir);
         using var model = ModelFile.Load(options.ModelPath);
-        var reader = new PageReader(model, options.Imaging ?? new ImagingOptions(), options.FlagBelow, options.Decoding);
-        var decoding = reader.Decoder.Options;
+        var recogniser = new Recogniser(model, options.Limits, options.Decoding, options.FlagBelow);
         var (sources, inputErrors) = InputSet.Expand(inputs);
 
-        var job = new BatchJob(options.OutDir, sources, inputErrors, reader.Imaging, reader.Read, model.Id,
-            OptionsFingerprint.Of(options), batch);
-        var c = BatchRunner.Run(job, new BatchProgress(progress, batch.Progress, batch),
-            counts => Summary(counts, clock.Elapsed.TotalSeconds), cancel);
+        var job = new BatchJob(options.OutDir, sources, inputErrors, recogniser,
+            RunSettings.Of(recogniser, options.FlagBelow, options.ModelPath), OptionsFingerprint.Of(options), batch, started, clock);
+        var c = BatchRunner.Run(job, new BatchProgress(progress, batch.Progress, batch), cancel);
         return new TranscribeSummary(c.Sources, c.Lines, c.Flagged, c.Errors, clock.Elapsed.TotalSeconds, model.Id)
         {
             Reused = c.Reused, Cancelled = c.Cancelled,
-        };
-
-        IDictionary<string, object?> Summary(BatchCounts c, double seconds) => new Dictionary<string, object?>
-        {
-            ["sources"] = c.Sources,
-            ["sources_done"] = c.Done,
-            ["lines"] = c.Lines,
-            ["flagged"] = c.Flagged,
-            ["errors"] = c.Errors,
-            ["flag_below"] = options.FlagBelow,
-            ["model_id"] = model.Id,
-            ["model_path"] = Path.GetFullPath(options.ModelPath),
-            ["decoder"] = reader.Decoder.Name,
-            ["beam"] = decoding.UsesBeam ? decoding.Beam : null,
-            ["lexicon"] = decoding.Lexicon?.Source,
-            ["lexicon_mode"] = decoding.Lexicon is null ? null : decoding.LexiconPenalty is null ? "strict" : "soft",
-            ["lexicon_weight"] = decoding.LexiconPenalty,
-            ["lm"] = decoding.LanguageModel?.Source,
-            ["lm_weight"] = decoding.LanguageModel is null ? null : decoding.LmWeight,
-            ["char_bonus"] = decoding.UsesBeam ? decoding.CharBonus : null,
-            ["started_utc"] = started.ToString("O"),
-            ["elapsed_seconds"] = Math.Round(seconds, 3),
-            ["lines_per_second"] = Math.Round(c.Lines / Math.Max(seconds, 1e-9), 2),
-            ["cancelled"] = c.Cancelled,
         };
     }
 }

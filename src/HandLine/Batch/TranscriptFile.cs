@@ -1,3 +1,5 @@
+using HandLine.Recognition;
+
 namespace HandLine.Batch;
 
 /// <summary>The per-image text file: where it goes and what it holds. One place, so runs and merges agree.</summary>

@@ -1,7 +1,6 @@
 using System.Text;
 using HandLine.Language;
 using HandLine.Model;
-using HandLine.Scoring;
 
 namespace HandLine.Decoding;
 

@@ -37,23 +37,23 @@ public static class CharacterPosterior
         alpha[0, 0] = Y(0, 0);
         alpha[0, 1] = Y(0, ClassOf(1));
         for (var t = 1; t < frames; t++)
-        for (var s = 0; s < states; s++)
-        {
-            var sum = alpha[t - 1, s];
-            if (s >= 1) sum = LogSpace.Add(sum, alpha[t - 1, s - 1]);
-            if (Skip(s)) sum = LogSpace.Add(sum, alpha[t - 1, s - 2]);
-            alpha[t, s] = sum + Y(t, ClassOf(s));
-        }
+            for (var s = 0; s < states; s++)
+            {
+                var sum = alpha[t - 1, s];
+                if (s >= 1) sum = LogSpace.Add(sum, alpha[t - 1, s - 1]);
+                if (Skip(s)) sum = LogSpace.Add(sum, alpha[t - 1, s - 2]);
+                alpha[t, s] = sum + Y(t, ClassOf(s));
+            }
         beta[frames - 1, states - 1] = 0;
         beta[frames - 1, states - 2] = 0;
         for (var t = frames - 2; t >= 0; t--)
-        for (var s = 0; s < states; s++)
-        {
-            var sum = Y(t + 1, ClassOf(s)) + beta[t + 1, s];
-            if (s + 1 < states) sum = LogSpace.Add(sum, Y(t + 1, ClassOf(s + 1)) + beta[t + 1, s + 1]);
-            if (s + 2 < states && Skip(s + 2)) sum = LogSpace.Add(sum, Y(t + 1, ClassOf(s + 2)) + beta[t + 1, s + 2]);
-            beta[t, s] = sum;
-        }
+            for (var s = 0; s < states; s++)
+            {
+                var sum = Y(t + 1, ClassOf(s)) + beta[t + 1, s];
+                if (s + 1 < states) sum = LogSpace.Add(sum, Y(t + 1, ClassOf(s + 1)) + beta[t + 1, s + 1]);
+                if (s + 2 < states && Skip(s + 2)) sum = LogSpace.Add(sum, Y(t + 1, ClassOf(s + 2)) + beta[t + 1, s + 2]);
+                beta[t, s] = sum;
+            }
         var total = LogSpace.Add(alpha[frames - 1, states - 1], alpha[frames - 1, states - 2]);
         var floor = candidateFloor > 0 ? Math.Log(candidateFloor) : ninf;
 

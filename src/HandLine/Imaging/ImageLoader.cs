@@ -26,17 +26,16 @@ public static class ImageLoader
         new BmpConfigurationModule(),
         new GifConfigurationModule());
 
-    public static GrayImage Load(string path, ImagingOptions options) => Load(ReadFile(path, options), path, options);
+    public static GrayImage Load(string path, InputLimits limits) => Load(ReadFile(path, limits), path, limits);
 
     /// <summary>
     /// Reads an image file's bytes, checking its size first. Special files (pipes, devices) report a size of
     /// 0 and are refused before opening, because reading one could block for ever.
     /// </summary>
-    public static byte[] ReadFile(string path, ImagingOptions options)
+    public static byte[] ReadFile(string path, InputLimits limits)
     {
         ArgumentException.ThrowIfNullOrEmpty(path);
-        ArgumentNullException.ThrowIfNull(options);
-        options.Validate();
+        ArgumentNullException.ThrowIfNull(limits);
 
         try
         {
@@ -45,8 +44,8 @@ public static class ImageLoader
                 throw new InputException(path, "read", Directory.Exists(path) ? "is a folder, not an image file" : "file not found");
             if (info.Length == 0)
                 throw new InputException(path, "decode", "file is empty");
-            if (info.Length > options.MaxFileBytes)
-                throw new InputException(path, "limits", $"file is {info.Length} bytes, over the limit of {options.MaxFileBytes}");
+            if (info.Length > limits.MaxFileBytes)
+                throw new InputException(path, "limits", $"file is {info.Length} bytes, over the limit of {limits.MaxFileBytes}");
             return File.ReadAllBytes(path);
         }
         catch (Exception e) when (e is FileNotFoundException or DirectoryNotFoundException)
@@ -65,17 +64,16 @@ public static class ImageLoader
     }
 
     /// <param name="nameForErrors">Shown in error messages (normally the file's path).</param>
-    public static GrayImage Load(byte[] bytes, string nameForErrors, ImagingOptions options)
+    public static GrayImage Load(byte[] bytes, string nameForErrors, InputLimits limits)
     {
         ArgumentNullException.ThrowIfNull(bytes);
         ArgumentNullException.ThrowIfNull(nameForErrors);
-        ArgumentNullException.ThrowIfNull(options);
-        options.Validate();
+        ArgumentNullException.ThrowIfNull(limits);
 
         if (bytes.Length == 0)
             throw new InputException(nameForErrors, "decode", "file is empty");
-        if (bytes.Length > options.MaxFileBytes)
-            throw new InputException(nameForErrors, "limits", $"file is {bytes.Length} bytes, over the limit of {options.MaxFileBytes}");
+        if (bytes.Length > limits.MaxFileBytes)
+            throw new InputException(nameForErrors, "limits", $"file is {bytes.Length} bytes, over the limit of {limits.MaxFileBytes}");
 
         // Before the decoders, which accept a cut-short file without complaint.
         if (ImageIntegrity.Problem(bytes) is { } damage)
@@ -97,16 +95,16 @@ public static class ImageLoader
         if (info.Width <= 0 || info.Height <= 0)
             throw new InputException(nameForErrors, "decode", $"image header gives an empty size ({info.Width}x{info.Height})");
         long pixels = (long)info.Width * info.Height;
-        if (pixels > options.MaxPixels)
-            throw new InputException(nameForErrors, "limits", $"image is {info.Width}x{info.Height} pixels, over the limit of {options.MaxPixels}");
+        if (pixels > limits.MaxPixels)
+            throw new InputException(nameForErrors, "limits", $"image is {info.Width}x{info.Height} pixels, over the limit of {limits.MaxPixels}");
 
         try
         {
             using var stream = new MemoryStream(bytes, writable: false);
             using var image = Image.Load<Rgba32>(DecodeConfiguration, stream);
             // The header already passed the limit; a decoder disagreeing with its own header is corrupt data.
-            if ((long)image.Width * image.Height > options.MaxPixels)
-                throw new InputException(nameForErrors, "limits", $"image is {image.Width}x{image.Height} pixels, over the limit of {options.MaxPixels}");
+            if ((long)image.Width * image.Height > limits.MaxPixels)
+                throw new InputException(nameForErrors, "limits", $"image is {image.Width}x{image.Height} pixels, over the limit of {limits.MaxPixels}");
             return ToLuminance(image);
         }
         catch (InputException)

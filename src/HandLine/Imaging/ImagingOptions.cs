@@ -1,32 +1,24 @@
 namespace HandLine.Imaging;
 
 /// <summary>
-/// Every limit and setting of the imaging stage in one place. Defaults suit scanned lines at
-/// roughly 200–400 dpi; call <see cref="Validate"/> before use (the stage's entry points do).
+/// The imaging stage's tuning values: how paper, ink, angles and lines are judged. Defaults suit scanned lines
+/// at roughly 200–400 dpi. Not here: what the model fixes about a normalised line (height, slant correction,
+/// binarisation: <see cref="Features.FeatureConfig"/>) and the safety limits (<see cref="InputLimits"/>).
+/// Checked once, when a stage is made from it (<see cref="LineFinder"/>, <see cref="LineNormaliser"/>).
 /// </summary>
 public sealed record ImagingOptions
 {
-    /// <summary>Largest image file accepted, in bytes (checked before reading).</summary>
-    public long MaxFileBytes { get; init; } = 64L * 1024 * 1024;
 
-    /// <summary>Largest width × height accepted (checked from the header before decoding).</summary>
-    public long MaxPixels { get; init; } = 40_000_000;
 
-    /// <summary>Height of every normalised line, in pixels.</summary>
-    public int LineHeight { get; init; } = 40;
 
-    /// <summary>Background pixels kept around the ink on all four sides, inside <see cref="LineHeight"/>.</summary>
+    /// <summary>Background pixels kept around the ink on all four sides, inside the model's line height.</summary>
     public int Margin { get; init; } = 2;
 
     /// <summary>Rotations are searched within ± this many degrees.</summary>
     public double MaxDeskewDegrees { get; init; } = 15;
 
-    public bool CorrectSlant { get; init; } = true;
-
     /// <summary>Stroke slants are searched within ± this many degrees.</summary>
     public double MaxSlantDegrees { get; init; } = 40;
-
-    public BinarisationMethod Binarisation { get; init; } = BinarisationMethod.None;
 
     /// <summary>Side of the square Sauvola window in pixels (odd). Common practice, no source: a few stroke widths.</summary>
     public int SauvolaWindow { get; init; } = 25;
@@ -55,8 +47,6 @@ public sealed record ImagingOptions
     /// <summary>Most a line may be enlarged; tiny ink (a lone dash) is centred rather than blown up.</summary>
     public double MaxUpscale { get; init; } = 8;
 
-    /// <summary>Widest normalised line accepted; wider means the input is not a single text line.</summary>
-    public int MaxLineWidth { get; init; } = 20_000;
 
     /// <summary>Angle searches run on a box-downscaled copy of at most about this many pixels.</summary>
     public int EstimationPixels { get; init; } = 50_000;
@@ -76,13 +66,9 @@ public sealed record ImagingOptions
     /// <summary>Throws <see cref="ArgumentException"/> when any setting is out of range.</summary>
     public void Validate()
     {
-        Check(MaxFileBytes > 0, nameof(MaxFileBytes), "must be positive");
-        Check(MaxPixels > 0, nameof(MaxPixels), "must be positive");
-        Check(LineHeight is >= 8 and <= 1024, nameof(LineHeight), "must be between 8 and 1024");
-        Check(Margin >= 0 && LineHeight - 2 * Margin >= 4, nameof(Margin), "must be non-negative and leave at least 4 rows of ink");
+        Check(Margin >= 0, nameof(Margin), "must be non-negative");
         Check(double.IsFinite(MaxDeskewDegrees) && MaxDeskewDegrees is >= 0 and <= 45, nameof(MaxDeskewDegrees), "must be between 0 and 45");
         Check(double.IsFinite(MaxSlantDegrees) && MaxSlantDegrees is >= 0 and <= 60, nameof(MaxSlantDegrees), "must be between 0 and 60");
-        Check(Enum.IsDefined(Binarisation), nameof(Binarisation), "is not a known method");
         Check(SauvolaWindow >= 3 && SauvolaWindow % 2 == 1, nameof(SauvolaWindow), "must be an odd number ≥ 3");
         Check(double.IsFinite(SauvolaK) && SauvolaK is > 0 and < 1, nameof(SauvolaK), "must be between 0 and 1");
         Check(BackgroundPercentile is >= 0 and < 1, nameof(BackgroundPercentile), "must be in [0, 1)");
@@ -91,7 +77,6 @@ public sealed record ImagingOptions
         Check(MinInkPixels >= 1, nameof(MinInkPixels), "must be at least 1");
         Check(SpeckFraction is >= 0 and < 1, nameof(SpeckFraction), "must be in [0, 1)");
         Check(double.IsFinite(MaxUpscale) && MaxUpscale >= 1, nameof(MaxUpscale), "must be at least 1");
-        Check(MaxLineWidth >= LineHeight, nameof(MaxLineWidth), "must be at least LineHeight");
         Check(EstimationPixels >= 10_000, nameof(EstimationPixels), "must be at least 10000");
         Check(LineRowFraction is > 0 and < 1, nameof(LineRowFraction), "must be between 0 and 1");
         Check(LineSeedFraction >= LineRowFraction && LineSeedFraction < 1, nameof(LineSeedFraction), "must be at least LineRowFraction and below 1");

@@ -6,8 +6,9 @@ namespace HandLine.Imaging;
 /// separated by at least a little clear space (touching descenders/ascenders merge the two lines);
 /// no column layouts, tables or marginal notes; every crop spans the full page width; a line of one narrow
 /// mark (a lone "1") beside full lines has too little ink to count.
+/// Made once from the tuning values (checked then) and used for every page.
 /// </summary>
-public static class LineFinder
+public sealed class LineFinder
 {
     // Common practice, no source: bands under this share of the median line height are dots,
     // accents or underlines and belong to their nearest line.
@@ -16,12 +17,22 @@ public static class LineFinder
     // Common practice, no source: context kept above and below a line, as a share of its height.
     private const double PadFraction = 0.25;
 
+    private readonly ImagingOptions _options;
+
+    /// <param name="tuning">The imaging stage's tuning values; null for the defaults.</param>
+    /// <exception cref="ArgumentException">A tuning value is out of range.</exception>
+    public LineFinder(ImagingOptions? tuning = null)
+    {
+        var options = tuning ?? new ImagingOptions();
+        options.Validate();
+        _options = options;
+    }
+
     /// <returns>Lines top to bottom; empty for a blank page; exactly one for a single line.</returns>
-    public static IReadOnlyList<LineRegion> Split(GrayImage luminance, ImagingOptions options)
+    public IReadOnlyList<LineRegion> Split(GrayImage luminance)
     {
         ArgumentNullException.ThrowIfNull(luminance);
-        ArgumentNullException.ThrowIfNull(options);
-        options.Validate();
+        var options = _options;
 
         var ink = ContrastNormaliser.ToInk(luminance, options);
         if (ink is null)

@@ -5,32 +5,71 @@ namespace HandLine.Imaging;
 /// binarisation → deskew → slant correction → crop to the ink → height normalisation.
 /// Angles are searched on a downscaled copy; the source is warped once (rotation and shear
 /// together) into the upright crop and then resized once, so blur does not accumulate.
+/// Made once per model (or training run) and used for every line: its settings are checked when it is made.
 /// </summary>
-public static class LineNormaliser
+public sealed class LineNormaliser
 {
     // Fewest x-height rows the slant search works on; below this, rounding of the shear dominates
     // and the search drifts towards 0°. Tuned on rendered test lines; no source.
     private const int SlantCoreRows = 16;
 
+    private readonly int _lineHeight;
+    private readonly bool _correctSlant;
+    private readonly BinarisationMethod _binarisation;
+    private readonly ImagingOptions _options;
+    private readonly int _maxLineWidth;
+
+    /// <summary>
+    /// The line settings are the model's: <see cref="Features.LinePreparer"/> passes those of its
+    /// <see cref="Features.FeatureConfig"/>, which owns them (this stage comes before features and takes plain values).
+    /// </summary>
+    /// <param name="lineHeight">Height of every normalised line, in pixels.</param>
+    /// <param name="correctSlant">Undo the shear of upright strokes.</param>
+    /// <param name="binarisation">Thresholding after contrast normalisation.</param>
+    /// <param name="tuning">The imaging stage's tuning values; null for the defaults.</param>
+    /// <param name="limits">Only <see cref="InputLimits.MaxLineWidth"/> applies here; null for the defaults.</param>
+    /// <exception cref="ArgumentException">A setting is out of range, or the settings do not fit together.</exception>
+    public LineNormaliser(int lineHeight, bool correctSlant, BinarisationMethod binarisation, ImagingOptions? tuning = null, InputLimits? limits = null)
+    {
+        if (lineHeight is < 8 or > 1024)
+            throw new ArgumentException($"line height {lineHeight} is outside 8..1024", nameof(lineHeight));
+        if (!Enum.IsDefined(binarisation))
+            throw new ArgumentException($"unknown binarisation {(int)binarisation}", nameof(binarisation));
+        var options = tuning ?? new ImagingOptions();
+        options.Validate();
+        var maxLineWidth = (limits ?? InputLimits.Default).MaxLineWidth;
+        if (lineHeight - 2 * options.Margin < 4)
+            throw new ArgumentException($"ImagingOptions.Margin {options.Margin} leaves fewer than 4 rows of ink in a line {lineHeight} high.", nameof(tuning));
+        if (maxLineWidth < lineHeight)
+            throw new ArgumentException($"InputLimits.MaxLineWidth {maxLineWidth} is below the line height {lineHeight}.", nameof(limits));
+        _lineHeight = lineHeight;
+        _correctSlant = correctSlant;
+        _binarisation = binarisation;
+        _options = options;
+        _maxLineWidth = maxLineWidth;
+    }
+
+    /// <summary>Height of every normalised line, in pixels (the model's).</summary>
+    public int LineHeight => _lineHeight;
+
     /// <param name="luminance">Loaded line image (0 black .. 1 white), either polarity.</param>
     /// <param name="nameForErrors">Shown in an <see cref="InputException"/> (normally the file's path).</param>
-    public static NormalisedLine Normalise(GrayImage luminance, ImagingOptions options, string nameForErrors = "line image")
+    public NormalisedLine Normalise(GrayImage luminance, string nameForErrors = "line image")
     {
         ArgumentNullException.ThrowIfNull(luminance);
-        ArgumentNullException.ThrowIfNull(options);
         ArgumentNullException.ThrowIfNull(nameForErrors);
-        options.Validate();
+        var options = _options;
 
         var ink = ContrastNormaliser.ToInk(luminance, options);
         if (ink is null)
-            return Blank(options);
-        ink = Binarise(ink, options);
+            return Blank();
+        ink = Binarise(ink);
 
         int factor = (int)Math.Max(1, Math.Ceiling(Math.Sqrt((double)ink.Width * ink.Height / options.EstimationPixels)));
         var small = Resampler.BoxDownscale(ink, factor);
         var (deskew, coreRows) = SkewEstimator.Estimate(small, options.MaxDeskewDegrees);
         double slant = 0;
-        if (options.CorrectSlant)
+        if (_correctSlant)
         {
             // Slant needs letters tall enough for strokes to show: downscale less if they would be short.
             int slantFactor = Math.Clamp(coreRows * factor / SlantCoreRows, 1, factor);
@@ -45,23 +84,23 @@ public static class LineNormaliser
 
         // Work at no more than about twice the final resolution: the core band (x-height) is a lower
         // bound on the ink height, so this never drops below the output's own sampling.
-        int inner = options.LineHeight - 2 * options.Margin;
+        int inner = _lineHeight - 2 * options.Margin;
         double step = Math.Max(1, coreRows * factor / (2.0 * inner));
         var upright = Upright(ink, deskew, slant, step);
         if (upright is null || InkBounds.Find(upright, options.SpeckFraction) is not { } box)
-            return Blank(options) with { DeskewDegrees = deskew, SlantDegrees = slant };
+            return Blank() with { DeskewDegrees = deskew, SlantDegrees = slant };
 
-        return new NormalisedLine(Fit(upright, box, step, options, nameForErrors), deskew, slant, HasInk: true);
+        return new NormalisedLine(Fit(upright, box, step, nameForErrors), deskew, slant, HasInk: true);
     }
 
-    private static NormalisedLine Blank(ImagingOptions options) =>
-        new(GrayImage.Filled(options.LineHeight, options.LineHeight, 0f), 0, 0, HasInk: false);
+    private NormalisedLine Blank() =>
+        new(GrayImage.Filled(_lineHeight, _lineHeight, 0f), 0, 0, HasInk: false);
 
-    private static GrayImage Binarise(GrayImage ink, ImagingOptions options)
+    private GrayImage Binarise(GrayImage ink)
     {
         var p = ink.Pixels;
         var result = new float[p.Length];
-        switch (options.Binarisation)
+        switch (_binarisation)
         {
             case BinarisationMethod.Otsu:
                 float t = Binariser.Otsu(ink);
@@ -70,7 +109,7 @@ public static class LineNormaliser
             case BinarisationMethod.Sauvola:
                 // Sauvola is defined on luminance with dark ink, so go through 1 − ink and back.
                 for (int i = 0; i < p.Length; i++) result[i] = 1f - p[i];
-                var paper = Binariser.Sauvola(new GrayImage(ink.Width, ink.Height, result), options.SauvolaWindow, options.SauvolaK).Pixels;
+                var paper = Binariser.Sauvola(new GrayImage(ink.Width, ink.Height, result), _options.SauvolaWindow, _options.SauvolaK).Pixels;
                 for (int i = 0; i < p.Length; i++) result[i] = 1f - paper[i];
                 break;
             default:
@@ -112,16 +151,17 @@ public static class LineNormaliser
     }
 
     /// <summary>Crops to the box and scales to the line height (keeping the aspect ratio) inside the margin.</summary>
-    private static GrayImage Fit(GrayImage upright, InkBounds.Box box, double step, ImagingOptions options, string name)
+    private GrayImage Fit(GrayImage upright, InkBounds.Box box, double step, string name)
     {
-        int inner = options.LineHeight - 2 * options.Margin;
+        var options = _options;
+        int inner = _lineHeight - 2 * options.Margin;
         // The upscale limit is relative to the source, whose pixels are `step` upright pixels.
         double scale = Math.Min((double)inner / box.Height, options.MaxUpscale * step);
         int outH = Math.Clamp((int)Math.Round(box.Height * scale), 1, inner);
         long outW = Math.Max(1, (long)Math.Round(box.Width * scale));
-        if (outW + 2 * options.Margin > options.MaxLineWidth)
+        if (outW + 2 * options.Margin > _maxLineWidth)
             throw new InputException(name, "normalise",
-                $"line would be {outW + 2 * options.Margin} pixels wide at height {options.LineHeight}, over the limit of {options.MaxLineWidth}; is this a single text line?");
+                $"line would be {outW + 2 * options.Margin} pixels wide at height {_lineHeight}, over the limit of {_maxLineWidth}; is this a single text line?");
 
         var crop = new float[box.Width * box.Height];
         for (int y = 0; y < box.Height; y++)
@@ -129,10 +169,10 @@ public static class LineNormaliser
         var scaled = Resampler.Resize(new GrayImage(box.Width, box.Height, crop), (int)outW, outH);
 
         int width = (int)outW + 2 * options.Margin;
-        var result = new float[width * options.LineHeight];
+        var result = new float[width * _lineHeight];
         int top = options.Margin + (inner - outH) / 2;
         for (int y = 0; y < outH; y++)
             Array.Copy(scaled.Pixels, y * outW, result, (top + y) * width + options.Margin, outW);
-        return new GrayImage(width, options.LineHeight, result);
+        return new GrayImage(width, _lineHeight, result);
     }
 }

@@ -3,7 +3,7 @@ namespace HandLine.Imaging;
 /// <summary>
 /// A line image ready for feature extraction.
 /// </summary>
-/// <param name="Ink">Ink image (0 paper .. 1 ink), exactly <see cref="ImagingOptions.LineHeight"/> rows high.</param>
+/// <param name="Ink">Ink image (0 paper .. 1 ink), exactly the model's line height (<see cref="Features.FeatureConfig.LineHeight"/>) rows high.</param>
 /// <param name="DeskewDegrees">
 /// Rotation found and undone. Positive = the text was turned counter-clockwise as seen on screen
 /// (baseline rising to the right); the normaliser turned it back clockwise by this much.

@@ -1,4 +1,5 @@
 using System.Text;
+using HandLine.Formats;
 
 namespace HandLine.Model;
 
@@ -33,7 +34,7 @@ public sealed class CharacterSet
     public static CharacterSet Default { get; } = FromString(DefaultSymbols);
 
     public static CharacterSet FromString(string symbols) =>
-        new(Scoring.TextUnits.ToNfc(symbols).EnumerateRunes().Select(r => r.ToString()));
+        new(TextUnits.ToNfc(symbols).EnumerateRunes().Select(r => r.ToString()));
 
     /// <summary>Number of symbols, excluding the blank.</summary>
     public int Count => _symbols.Length;
@@ -51,7 +52,7 @@ public sealed class CharacterSet
     /// <summary>Model classes (1-based) for a text; throws naming the first symbol outside the set.</summary>
     public int[] Encode(string text)
     {
-        var runes = Scoring.TextUnits.ToNfc(text).EnumerateRunes().ToArray();
+        var runes = TextUnits.ToNfc(text).EnumerateRunes().ToArray();
         var classes = new int[runes.Length];
         for (var i = 0; i < runes.Length; i++)
         {
@@ -73,7 +74,7 @@ public sealed class CharacterSet
         ArgumentNullException.ThrowIfNull(texts);
         var missing = new SortedSet<Rune>();
         foreach (var text in texts)
-            foreach (var r in Scoring.TextUnits.ToNfc(text).EnumerateRunes())
+            foreach (var r in TextUnits.ToNfc(text).EnumerateRunes())
                 if (!_index.ContainsKey(r.ToString()))
                     missing.Add(r);
         return missing.Select(r => r.ToString()).ToArray();
@@ -106,7 +107,7 @@ public sealed class CharacterSet
 
     /// <summary>True when every character of the text is in the set.</summary>
     public bool CanEncode(string text) =>
-        Scoring.TextUnits.ToNfc(text).EnumerateRunes().All(r => _index.ContainsKey(r.ToString()));
+        TextUnits.ToNfc(text).EnumerateRunes().All(r => _index.ContainsKey(r.ToString()));
 
     public override string ToString() => string.Concat(_symbols);
 }

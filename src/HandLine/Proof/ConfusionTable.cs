@@ -1,4 +1,5 @@
 using System.Text;
+using HandLine.Formats;
 using HandLine.Scoring;
 
 namespace HandLine.Proof;

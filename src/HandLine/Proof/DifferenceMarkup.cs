@@ -1,5 +1,6 @@
 using System.Net;
 using System.Text;
+using HandLine.Formats;
 using HandLine.Scoring;
 
 namespace HandLine.Proof;

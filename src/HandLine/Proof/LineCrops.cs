@@ -10,6 +10,8 @@ namespace HandLine.Proof;
 /// </summary>
 internal static class LineCrops
 {
+    private static readonly LineFinder Finder = new();
+
     /// <summary>
     /// Finds the lines of a page again with the default imaging settings and returns each as PNG, or null when the
     /// page now splits into a different number of lines than the run read (the run may have used other settings),
@@ -19,8 +21,7 @@ internal static class LineCrops
     {
         try
         {
-            var imaging = new ImagingOptions();
-            var regions = LineFinder.Split(ImageLoader.Load(image, imaging), imaging);
+            var regions = Finder.Split(ImageLoader.Load(image, new InputLimits()));
             if (regions.Count != expectedLines)
                 return null;
             return regions.Select(r => Png(r.Image)).ToArray();

@@ -2,6 +2,7 @@ using System.Globalization;
 using System.Text;
 using System.Text.Encodings.Web;
 using System.Text.Json;
+using HandLine.Formats;
 using HandLine.Scoring;
 
 namespace HandLine.Proof;

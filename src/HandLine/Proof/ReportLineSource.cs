@@ -1,3 +1,4 @@
+using HandLine.Formats;
 using HandLine.Scoring;
 
 namespace HandLine.Proof;

@@ -1,6 +1,6 @@
 using System.Globalization;
 using System.Text;
-using HandLine.Scoring;
+using HandLine.Formats;
 
 namespace HandLine.Review;
 

@@ -4,6 +4,7 @@ using System.Text.Encodings.Web;
 using System.Text.Json;
 using System.Text.Json.Nodes;
 using HandLine.Batch;
+using HandLine.Formats;
 using HandLine.Scoring;
 
 namespace HandLine.Review;

@@ -1,6 +1,7 @@
 using System.Text;
 using System.Text.Json;
 using System.Text.Json.Nodes;
+using HandLine.Formats;
 using HandLine.Scoring;
 
 namespace HandLine.Review;

@@ -1,3 +1,5 @@
+using HandLine.Formats;
+
 namespace HandLine.Scoring;
 
 /// <summary>

@@ -1,4 +1,5 @@
 using System.Text.Json;
+using HandLine.Formats;
 
 namespace HandLine.Scoring;
 

@@ -1,3 +1,5 @@
+using HandLine.Formats;
+
 namespace HandLine.Scoring;
 
 /// <summary>Scores transcripts against truth by CER (over NFC code points) and WER (over words).</summary>

@@ -1,6 +1,7 @@
 using System.Text;
 using System.Text.Json;
 using HandLine.Batch;
+using HandLine.Recognition;
 using HandLine.Tests.Imaging;
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
@@ -124,13 +125,11 @@ public sealed class BadInputTests : IDisposable
             File.Copy(Path.Combine(BatchTestSupport.Demo, "ledger-06.png"), Path.Combine(scans, name));
         var (sources, inputErrors) = InputSet.Expand([scans]);
         var outDir = Path.Combine(_dir, "out");
-        var job = new BatchJob(outDir, sources, inputErrors, new global::HandLine.Imaging.ImagingOptions(), (source, _) =>
-            source.Source == "b.png"
-                ? throw new InvalidOperationException("simulated fault in a later stage")
-                : [new LineResult(source.Source, 0, "Folio 23", 0.9, false, [], 0, 0)],
-            "model-x", "options-y", new BatchOptions { Progress = ProgressStyle.None });
+        var settings = new RunSettings(0.5, "model-x", "/models/x.hlm", "greedy", null, null, null, null, null, null, null);
+        var job = new BatchJob(outDir, sources, inputErrors, new FailsOn("b.png"), settings, "options-y",
+            new BatchOptions { Progress = ProgressStyle.None }, DateTime.UtcNow, System.Diagnostics.Stopwatch.StartNew());
 
-        var counts = BatchRunner.Run(job, new BatchProgress(null, ProgressStyle.None, job.Options), _ => new Dictionary<string, object?>(), default);
+        var counts = BatchRunner.Run(job, new BatchProgress(null, ProgressStyle.None, job.Options), default);
 
         Assert.Equal((3, 2, 1), (counts.Sources, counts.Done, counts.Errors));
         var error = JsonDocument.Parse(File.ReadAllLines(Path.Combine(outDir, "errors.jsonl")).Single()).RootElement;
@@ -206,5 +205,16 @@ public sealed class BadInputTests : IDisposable
         else image.SaveAsJpeg(stream);
         image.Dispose();
         return stream.ToArray();
+    }
+
+    /// <summary>Reads every source as one fixed line, except one, where a later stage fails unexpectedly.</summary>
+    private sealed class FailsOn(string failing) : IImageRecogniser
+    {
+        public global::HandLine.Imaging.InputLimits Limits => global::HandLine.Imaging.InputLimits.Default;
+
+        public IReadOnlyList<LineResult> Read(byte[] imageBytes, string source, string nameForErrors) =>
+            source == failing
+                ? throw new InvalidOperationException("simulated fault in a later stage")
+                : [new LineResult(source, 0, "Folio 23", 0.9, false, [], 0, 0)];
     }
 }

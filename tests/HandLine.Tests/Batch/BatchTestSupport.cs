@@ -47,7 +47,7 @@ internal static class BatchTestSupport
         foreach (var txt in Directory.EnumerateFiles(outDir, "*.txt", SearchOption.AllDirectories))
             files[Path.GetRelativePath(outDir, txt).Replace('\\', '/')] = File.ReadAllText(txt);
         var summary = JsonNode.Parse(File.ReadAllText(Path.Combine(outDir, "summary.json")))!.AsObject();
-        foreach (var field in RunSummaryFields.Measured) summary.Remove(field);
+        foreach (var field in RunSummary.Measurements) summary.Remove(field);
         summary.Remove("model_path");
         files["summary.json (measurements removed)"] = summary.ToJsonString();
         return files;

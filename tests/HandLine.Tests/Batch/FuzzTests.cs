@@ -1,8 +1,9 @@
 using System.Text;
 using HandLine.Batch;
 using HandLine.Batch.Journal;
+using HandLine.Formats;
 using HandLine.Imaging;
-using HandLine.Scoring;
+using HandLine.Recognition;
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
 
@@ -27,7 +28,7 @@ public sealed class FuzzTests : IDisposable
         var rng = new Random(20_240_611);
         var originals = new[] { "png", "jpeg", "gif", "bmp", "tiff" }.Select(Encode).ToArray();
         // Small limits keep a mutated header that claims a large image from costing time.
-        var options = new ImagingOptions { MaxPixels = 400_000, MaxFileBytes = 1 << 20 };
+        var options = new InputLimits { MaxPixels = 400_000, MaxFileBytes = 1 << 20 };
         int accepted = 0, refused = 0;
         for (var i = 0; i < 300; i++)
         {
@@ -139,7 +140,8 @@ public sealed class FuzzTests : IDisposable
         {
             try { action(); }
             catch (Exception e) { thrown = e; }
-        }) { IsBackground = true };
+        })
+        { IsBackground = true };
         worker.Start();
         Assert.True(worker.Join(CaseLimit), $"case {caseNumber} took longer than {CaseLimit.TotalSeconds} s");
         return thrown;

@@ -1,7 +1,6 @@
 using System.Text.Json;
 using HandLine.Batch;
-using HandLine.Scoring;
-using HandLine.Tests.Model;
+using HandLine.Formats;
 
 namespace HandLine.Tests.Batch;
 

@@ -1,6 +1,5 @@
 using HandLine.Decoding;
 using HandLine.Model;
-using HandLine.Scoring;
 
 namespace HandLine.Tests.Decoding;
 

@@ -1,13 +1,12 @@
 using HandLine.Imaging;
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
-using Xunit;
 
 namespace HandLine.Tests.Imaging;
 
 public sealed class ImageLoaderTests
 {
-    private static readonly ImagingOptions Defaults = new();
+    private static readonly InputLimits Defaults = InputLimits.Default;
 
     // 37×23, black left half, white right half: odd sizes catch swapped or padded dimensions.
     private static Image<Rgba32> Sample()

@@ -1,3 +1,4 @@
+using HandLine.Features;
 using HandLine.Imaging;
 using SkiaSharp;
 
@@ -6,6 +7,10 @@ namespace HandLine.Tests.Imaging;
 /// <summary>Renders invented account-book lines with the committed test font, and small image helpers.</summary>
 internal static class ImagingTestSupport
 {
+    /// <summary>A normaliser with a feature configuration's line settings, as <see cref="LinePreparer"/> makes it.</summary>
+    public static LineNormaliser NormaliserFor(FeatureConfig line, ImagingOptions? tuning = null, InputLimits? limits = null) =>
+        new(line.LineHeight, line.CorrectSlant, line.Binarisation, tuning, limits);
+
     public const string EstateLine = "Recd of Wm. Hartwell 3 bush. barley 1 4 6";
 
     private static readonly Lazy<SKTypeface> Face = new(() =>

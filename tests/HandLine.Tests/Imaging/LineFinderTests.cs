@@ -1,5 +1,5 @@
+using HandLine.Features;
 using HandLine.Imaging;
-using Xunit;
 using static HandLine.Tests.Imaging.ImagingTestSupport;
 
 namespace HandLine.Tests.Imaging;
@@ -23,7 +23,7 @@ public sealed class LineFinderTests
         const int gap = 14;
         var page = Stack(lines, gap);
 
-        var regions = LineFinder.Split(page, Defaults);
+        var regions = new LineFinder(Defaults).Split(page);
 
         Assert.Equal(3, regions.Count);
         int top = 0;
@@ -43,11 +43,11 @@ public sealed class LineFinderTests
     public void Regions_normalise_to_the_same_lines()
     {
         var lines = Entries.Select(t => Render(t, padding: 6)).ToArray();
-        var regions = LineFinder.Split(Stack(lines, 14), Defaults);
+        var regions = new LineFinder(Defaults).Split(Stack(lines, 14));
         for (int i = 0; i < lines.Length; i++)
         {
-            int expected = LineNormaliser.Normalise(lines[i], Defaults).Ink.Width;
-            int actual = LineNormaliser.Normalise(regions[i].Image, Defaults).Ink.Width;
+            int expected = NormaliserFor(new FeatureConfig(), Defaults).Normalise(lines[i]).Ink.Width;
+            int actual = NormaliserFor(new FeatureConfig(), Defaults).Normalise(regions[i].Image).Ink.Width;
             // One row more or less of ink height (a tiny page turn, resampling) changes the scale by ~4 %.
             Assert.InRange(actual, expected * 0.95, expected * 1.05);
         }
@@ -63,14 +63,14 @@ public sealed class LineFinderTests
         var (x0, y0, x1, y1) = turn.Bounds(0, 0, page.Width - 1, page.Height - 1);
         var turned = turn.Render(page, Math.Floor(x0), Math.Floor(y0), (int)Math.Ceiling(x1 - x0) + 1, (int)Math.Ceiling(y1 - y0) + 1, 1f);
 
-        var regions = LineFinder.Split(turned, Defaults);
+        var regions = new LineFinder(Defaults).Split(turned);
 
         Assert.Equal(3, regions.Count);
         Assert.True(regions[0].Bottom < regions[1].Top && regions[1].Bottom < regions[2].Top);
         for (int i = 0; i < 3; i++)
         {
-            int expected = LineNormaliser.Normalise(lines[i], Defaults).Ink.Width;
-            int actual = LineNormaliser.Normalise(regions[i].Image, Defaults).Ink.Width;
+            int expected = NormaliserFor(new FeatureConfig(), Defaults).Normalise(lines[i]).Ink.Width;
+            int actual = NormaliserFor(new FeatureConfig(), Defaults).Normalise(regions[i].Image).Ink.Width;
             Assert.InRange(actual, expected * 0.95, expected * 1.05);
         }
     }
@@ -80,7 +80,7 @@ public sealed class LineFinderTests
     {
         // "ij" dots and a lone line with descenders must not split into fragments.
         var line = Render("jiggling quill pen, Jas. Orrinwell", padding: 10);
-        var regions = LineFinder.Split(line, Defaults);
+        var regions = new LineFinder(Defaults).Split(line);
         Assert.Single(regions);
     }
 
@@ -92,8 +92,8 @@ public sealed class LineFinderTests
     {
         // Blurred, JPEG-compressed paper noise, show-through, uneven light or ruling (fixtures/imaging/README.md):
         // rows of noise alone used to cross the threshold and come out as extra "lines" of junk text.
-        var image = ImageLoader.Load(Path.Combine(RepoRoot(), "fixtures", "imaging", file), Defaults);
-        Assert.Single(LineFinder.Split(image, Defaults));
+        var image = ImageLoader.Load(Path.Combine(RepoRoot(), "fixtures", "imaging", file), InputLimits.Default);
+        Assert.Single(new LineFinder(Defaults).Split(image));
     }
 
     [Theory]
@@ -107,13 +107,13 @@ public sealed class LineFinderTests
         // the seed threshold drops to the row threshold (a fixed 15 % of the fullest row would lose all three).
         // A lone narrow mark, "1", is still lost: its rows fall under LineRowFraction of a full line's.
         var lines = new[] { Render(Entries[1], padding: 6), Render(Entries[2], padding: 6), Render(shortLine, padding: 6) };
-        var regions = LineFinder.Split(Stack(lines, 14), Defaults);
+        var regions = new LineFinder(Defaults).Split(Stack(lines, 14));
         Assert.Equal(3, regions.Count);
     }
 
     [Fact]
     public void Blank_page_gives_no_regions()
     {
-        Assert.Empty(LineFinder.Split(GrayImage.Filled(400, 300, 1f), Defaults));
+        Assert.Empty(new LineFinder(Defaults).Split(GrayImage.Filled(400, 300, 1f)));
     }
 }

@@ -1,5 +1,5 @@
+using HandLine.Features;
 using HandLine.Imaging;
-using Xunit;
 using static HandLine.Tests.Imaging.ImagingTestSupport;
 
 namespace HandLine.Tests.Imaging;
@@ -7,6 +7,9 @@ namespace HandLine.Tests.Imaging;
 public sealed class LineNormaliserTests
 {
     private static readonly ImagingOptions Defaults = new();
+
+    private static NormalisedLine Normalise(GrayImage image, ImagingOptions tuning, FeatureConfig? line = null) =>
+        NormaliserFor(line ?? new FeatureConfig(), tuning).Normalise(image);
 
     [Theory]
     [InlineData(-10.0)]
@@ -18,7 +21,7 @@ public sealed class LineNormaliserTests
     public void Deskew_recovers_known_rotation(double degrees)
     {
         var line = Render(EstateLine, rotateDegrees: degrees);
-        var result = LineNormaliser.Normalise(line, Defaults);
+        var result = Normalise(line, Defaults);
         Assert.True(result.HasInk);
         // Requirement of the stage (0.5°), not a published figure.
         Assert.InRange(result.DeskewDegrees, degrees - 0.5, degrees + 0.5);
@@ -27,8 +30,8 @@ public sealed class LineNormaliserTests
     [Fact]
     public void Deskewed_line_is_as_flat_as_the_unrotated_one()
     {
-        var flat = LineNormaliser.Normalise(Render(EstateLine), Defaults).Ink;
-        var turned = LineNormaliser.Normalise(Render(EstateLine, rotateDegrees: 8), Defaults).Ink;
+        var flat = Normalise(Render(EstateLine), Defaults).Ink;
+        var turned = Normalise(Render(EstateLine, rotateDegrees: 8), Defaults).Ink;
         // Same text at the same height: after undoing the turn the widths agree closely.
         Assert.InRange(turned.Width, flat.Width * 0.97, flat.Width * 1.03);
     }
@@ -37,9 +40,9 @@ public sealed class LineNormaliserTests
     public void Slant_correction_finds_and_removes_known_shear()
     {
         var options = Defaults;
-        var upright = LineNormaliser.Normalise(Render(EstateLine), options);
+        var upright = Normalise(Render(EstateLine), options);
         var slanted = Render(EstateLine, slantDegrees: 20);
-        var corrected = LineNormaliser.Normalise(slanted, options);
+        var corrected = Normalise(slanted, options);
 
         // The font's own slant is small; the added 20° must show up on top of it.
         Assert.InRange(corrected.SlantDegrees, 16, 24);
@@ -53,7 +56,7 @@ public sealed class LineNormaliserTests
     [Fact]
     public void Slant_correction_can_be_switched_off()
     {
-        var result = LineNormaliser.Normalise(Render(EstateLine, slantDegrees: 20), Defaults with { CorrectSlant = false });
+        var result = Normalise(Render(EstateLine, slantDegrees: 20), Defaults, new FeatureConfig(CorrectSlant: false));
         Assert.Equal(0, result.SlantDegrees);
     }
 
@@ -61,8 +64,8 @@ public sealed class LineNormaliserTests
     public void Light_on_dark_line_normalises_like_dark_on_light()
     {
         var line = Render(EstateLine, rotateDegrees: 3, slantDegrees: 10);
-        var normal = LineNormaliser.Normalise(line, Defaults);
-        var negative = LineNormaliser.Normalise(Invert(line), Defaults);
+        var normal = Normalise(line, Defaults);
+        var negative = Normalise(Invert(line), Defaults);
 
         Assert.Equal(normal.DeskewDegrees, negative.DeskewDegrees, 2);
         Assert.Equal(normal.SlantDegrees, negative.SlantDegrees, 2);
@@ -76,8 +79,8 @@ public sealed class LineNormaliserTests
     {
         // Separately rendered: the rasteriser draws light glyphs a little bolder, so the ink box can
         // differ by a row. Tolerances: common practice, no source.
-        var normal = LineNormaliser.Normalise(Render(EstateLine), Defaults);
-        var negative = LineNormaliser.Normalise(Render(EstateLine, whiteOnBlack: true), Defaults);
+        var normal = Normalise(Render(EstateLine), Defaults);
+        var negative = Normalise(Render(EstateLine, whiteOnBlack: true), Defaults);
         Assert.True(negative.HasInk);
         Assert.Equal(normal.Ink.Height, negative.Ink.Height);
         Assert.InRange(negative.Ink.Width, normal.Ink.Width * 0.95, normal.Ink.Width * 1.05);
@@ -91,13 +94,14 @@ public sealed class LineNormaliserTests
     [InlineData(40f, 64, 5)]
     public void Height_is_normalised_keeping_aspect_ratio_and_margin(float fontSize, int lineHeight, int margin)
     {
-        var options = Defaults with { LineHeight = lineHeight, Margin = margin, CorrectSlant = false };
+        var options = Defaults with { Margin = margin };
+        var features = new FeatureConfig(LineHeight: lineHeight, CorrectSlant: false);
         var line = Render(EstateLine, fontSize);
         // Measure the source box on the contrast-stretched ink, as the stage crops it.
         var (x0, y0, x1, y1) = Bounds(ContrastNormaliser.ToInk(line, options)!, 0.5f)!.Value;
         double sourceAspect = (double)(x1 - x0 + 1) / (y1 - y0 + 1);
 
-        var ink = LineNormaliser.Normalise(line, options).Ink;
+        var ink = Normalise(line, options, features).Ink;
 
         Assert.Equal(lineHeight, ink.Height);
         int inner = lineHeight - 2 * margin;
@@ -124,8 +128,8 @@ public sealed class LineNormaliserTests
                 p[y * clean.Width + x] = 0f; // 3×3 dust spot in the top-left corner
         var dusty = new GrayImage(clean.Width, clean.Height, p);
 
-        var a = LineNormaliser.Normalise(clean, Defaults).Ink;
-        var b = LineNormaliser.Normalise(dusty, Defaults).Ink;
+        var a = Normalise(clean, Defaults).Ink;
+        var b = Normalise(dusty, Defaults).Ink;
         Assert.InRange(b.Width, a.Width - 1, a.Width + 1);
     }
 
@@ -134,10 +138,11 @@ public sealed class LineNormaliserTests
     {
         // A faint "No." before a bold folio number: the crop once dropped it, because only its darkest
         // pixels counted as ink and they fell apart into specks (the case measured in InkBounds).
-        var options = Defaults with { CorrectSlant = false, MaxDeskewDegrees = 0 };
-        var faint = LineNormaliser.Normalise(WordBesideFigure(edge: 0.6f, core: 0.4f), options).Ink;
-        var dark = LineNormaliser.Normalise(WordBesideFigure(edge: 0.05f, core: 0.05f), options).Ink;
-        var figureAlone = LineNormaliser.Normalise(WordBesideFigure(edge: 0.95f, core: 0.95f), options).Ink;
+        var options = Defaults with { MaxDeskewDegrees = 0 };
+        var upright = new FeatureConfig(CorrectSlant: false);
+        var faint = Normalise(WordBesideFigure(edge: 0.6f, core: 0.4f), options, upright).Ink;
+        var dark = Normalise(WordBesideFigure(edge: 0.05f, core: 0.05f), options, upright).Ink;
+        var figureAlone = Normalise(WordBesideFigure(edge: 0.95f, core: 0.95f), options, upright).Ink;
         Assert.InRange(faint.Width, dark.Width - 1, dark.Width + 1);
         Assert.True(dark.Width > 2 * figureAlone.Width, $"the word is not in the crop: {dark.Width} vs {figureAlone.Width}");
     }
@@ -163,9 +168,9 @@ public sealed class LineNormaliserTests
     [Fact]
     public void Blank_image_has_no_ink()
     {
-        var result = LineNormaliser.Normalise(GrayImage.Filled(300, 60, 0.93f), Defaults);
+        var result = Normalise(GrayImage.Filled(300, 60, 0.93f), Defaults);
         Assert.False(result.HasInk);
-        Assert.Equal(Defaults.LineHeight, result.Ink.Height);
+        Assert.Equal(new FeatureConfig().LineHeight, result.Ink.Height);
         Assert.All(result.Ink.Pixels, v => Assert.Equal(0f, v));
     }
 
@@ -174,7 +179,7 @@ public sealed class LineNormaliserTests
     {
         var rng = new Random(3);
         var grain = new GrayImage(300, 60, Enumerable.Range(0, 18000).Select(_ => 0.9f + 0.06f * (float)rng.NextDouble()).ToArray());
-        Assert.False(LineNormaliser.Normalise(grain, Defaults).HasInk);
+        Assert.False(Normalise(grain, Defaults).HasInk);
     }
 
     [Theory]
@@ -182,9 +187,10 @@ public sealed class LineNormaliserTests
     [InlineData(BinarisationMethod.Sauvola)]
     public void Binarised_lines_hold_only_zero_and_one(BinarisationMethod method)
     {
-        var options = Defaults with { Binarisation = method, CorrectSlant = false, LineHeight = 200, Margin = 0, MaxUpscale = 1 };
+        var options = Defaults with { Margin = 0, MaxUpscale = 1 };
+        var features = new FeatureConfig(LineHeight: 200, CorrectSlant: false, Binarisation: method);
         // With MaxUpscale 1 and a line shorter than 200 rows nothing is resampled, so values stay binary.
-        var result = LineNormaliser.Normalise(Render(EstateLine, fontSize: 30), options with { MaxDeskewDegrees = 0 });
+        var result = Normalise(Render(EstateLine, fontSize: 30), options with { MaxDeskewDegrees = 0 }, features);
         Assert.True(result.HasInk);
         Assert.All(result.Ink.Pixels, v => Assert.True(v is 0f or 1f, $"value {v}"));
         Assert.Contains(1f, result.Ink.Pixels);
@@ -193,7 +199,7 @@ public sealed class LineNormaliserTests
     [Fact]
     public void Rejects_bad_arguments()
     {
-        Assert.Throws<ArgumentNullException>(() => LineNormaliser.Normalise(null!, Defaults));
-        Assert.Throws<ArgumentException>(() => LineNormaliser.Normalise(GrayImage.Filled(5, 5, 1f), Defaults with { LineHeight = 2 }));
+        Assert.Throws<ArgumentNullException>(() => Normalise(null!, Defaults));
+        Assert.Throws<ArgumentException>(() => Normalise(GrayImage.Filled(5, 5, 1f), Defaults, new FeatureConfig(LineHeight: 2)));
     }
 }

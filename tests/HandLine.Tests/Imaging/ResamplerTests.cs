@@ -1,5 +1,4 @@
 using HandLine.Imaging;
-using Xunit;
 
 namespace HandLine.Tests.Imaging;
 

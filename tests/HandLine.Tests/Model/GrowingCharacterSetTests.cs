@@ -1,8 +1,7 @@
 using HandLine.Decoding;
 using HandLine.Features;
-using HandLine.Imaging;
+using HandLine.Formats;
 using HandLine.Model;
-using HandLine.Scoring;
 using HandLine.Synthesis;
 using HandLine.Tests.Batch;
 using HandLine.Tests.Synthesis;
@@ -109,10 +108,10 @@ public sealed class GrowingCharacterSetTests(ITestOutputHelper output) : IDispos
         // (median below 0.0001; 0.0103 with the earlier small model); bound 0.02.
         using var model = ModelFile.Load(Path.Combine(TestPaths.RepoRoot, "models", "default.hlm"));
         using var grown = model.WithSymbols(["%", "é"], seed: 1);
-        var imaging = LinePreparation.ImagingFor(model.Features, new ImagingOptions());
+        var preparer = new LinePreparer(model.Features);
         var demo = Path.Combine(TestPaths.Fixtures, "demo");
         var lines = Directory.GetFiles(demo, "*.png").Order(StringComparer.Ordinal)
-            .Select(f => LinePreparation.Prepare(ImageLoader.Load(f, imaging), model.Features, imaging, f).Features).ToArray();
+            .Select(f => preparer.Prepare(preparer.Load(f), f).Features).ToArray();
         var before = model.Run(lines);
         var after = grown.Run(lines);
         var oldClasses = model.Charset.ClassCount;
@@ -234,7 +233,7 @@ public sealed class GrowingCharacterSetTests(ITestOutputHelper output) : IDispos
     /// <summary>Lines of two to four random digits, with a "½" inserted somewhere when asked.</summary>
     private static List<LineSample> RenderedLines(int count, int seed, bool withHalf, CharacterSet charset, FeatureConfig features)
     {
-        var imaging = LinePreparation.ImagingFor(features, new ImagingOptions());
+        var preparer = new LinePreparer(features);
         var rng = new Random(seed);
         var lines = new List<LineSample>();
         while (lines.Count < count)
@@ -243,7 +242,7 @@ public sealed class GrowingCharacterSetTests(ITestOutputHelper output) : IDispos
             if (withHalf) text = text.Insert(rng.Next(text.Length + 1), "½");
             var image = LineSynthesiser.RenderOne(text, SynthesisFixtures.Catalog, rng, DegradationRanges.None)
                         ?? throw new InvalidOperationException($"no fixture font draws '{text}'");
-            var prepared = LinePreparation.Prepare(image.Image, features, imaging);
+            var prepared = preparer.Prepare(image.Image);
             lines.Add(new LineSample($"line{lines.Count}", text, prepared.Line.Ink, features, charset.Encode(text)));
         }
         return lines;

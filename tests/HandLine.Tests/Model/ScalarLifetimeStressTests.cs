@@ -46,7 +46,7 @@ public sealed class ScalarLifetimeStressTests
             using var adam = new HandLine.Training.AdamOptimiser(model.Network.parameters(), 0.01);
             var options = new HandLine.Training.TrainingOptions { Seed = 5 };
             for (var step = 0; step < 30; step++)
-                HandLine.Training.Trainer.Step(model.Network, adam, lines, HandLine.Training.Trainer.Features(lines, options, 0, step), options, epoch: 0, index: step);
+                HandLine.Training.TrainingStep.Step(model.Network, adam, lines, HandLine.Training.TrainingStep.Features(lines, options, 0, step), options, epoch: 0, index: step);
             return model.Network.parameters().SelectMany(p => p.data<float>().ToArray()).ToArray();
         }
         var expected = Train();
@@ -78,7 +78,7 @@ public sealed class ScalarLifetimeStressTests
             model.Run(lines.Select(l => l.Features).ToArray());
         var afterRun = finalised.Count();
         for (var step = 0; step < 5; step++)
-            HandLine.Training.Trainer.Step(model.Network, adam, lines, HandLine.Training.Trainer.Features(lines, options, 0, step), options, 0, step);
+            HandLine.Training.TrainingStep.Step(model.Network, adam, lines, HandLine.Training.TrainingStep.Features(lines, options, 0, step), options, 0, step);
         var afterStep = finalised.Count();
         Assert.Equal((0, 0), (afterRun, afterStep));
     }
@@ -98,7 +98,8 @@ public sealed class ScalarLifetimeStressTests
                 GC.Collect();
                 GC.WaitForPendingFinalizers();
             }
-        }) { IsBackground = true };
+        })
+        { IsBackground = true };
         collector.Start();
         var workers = Enumerable.Range(0, threads).Select(t => new Thread(() =>
         {
@@ -130,7 +131,7 @@ public sealed class ScalarLifetimeStressTests
         private readonly long _typeId;
         private int _count;
         private int _markers;
-        private volatile bool _counting;
+        private readonly bool _counting;
 
         public FinalisedObjects(Type type)
         {

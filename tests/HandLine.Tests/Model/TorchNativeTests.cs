@@ -1,5 +1,4 @@
 using HandLine.Model;
-using TorchSharp;
 using static TorchSharp.torch;
 
 namespace HandLine.Tests.Model;

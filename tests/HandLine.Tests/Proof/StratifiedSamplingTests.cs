@@ -1,3 +1,4 @@
+using HandLine.Formats;
 using HandLine.Proof;
 using HandLine.Scoring;
 

@@ -44,7 +44,7 @@ public sealed class RunCorrectorTests : IDisposable
         Assert.Contains("ledger/002.png,0,Paid to Wm Oakes for barley,0.31,true,0.5,-1.25\n", File.ReadAllText(Path.Combine(_run.Run, "lines.csv")));
 
         // The manifest holds the two legible corrections with their crops, readable as a training set.
-        var manifest = HandLine.Scoring.Manifest.Read(result.ManifestPath);
+        var manifest = HandLine.Formats.Manifest.Read(result.ManifestPath);
         Assert.Equal(2, result.ManifestLines);
         Assert.Equal(1, result.Illegible);
         Assert.Equal(["Paid to Wm Oakes for barley", "Rent <and> tithe"], manifest.Entries.Select(e => e.Text).Order(StringComparer.Ordinal));

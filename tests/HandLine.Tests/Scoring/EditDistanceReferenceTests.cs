@@ -1,5 +1,4 @@
 using HandLine.Scoring;
-using Xunit;
 
 namespace HandLine.Tests.Scoring;
 

@@ -1,6 +1,6 @@
 using System.Text.Json;
+using HandLine.Formats;
 using HandLine.Scoring;
-using Xunit;
 
 namespace HandLine.Tests.Scoring;
 

@@ -1,6 +1,5 @@
 using System.Text.Json;
 using HandLine.Scoring;
-using Xunit;
 
 namespace HandLine.Tests.Scoring;
 

@@ -1,5 +1,5 @@
+using HandLine.Formats;
 using HandLine.Scoring;
-using Xunit;
 
 namespace HandLine.Tests.Scoring;
 

@@ -1,6 +1,5 @@
 using System.Text.Json;
 using HandLine.Synthesis;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 
@@ -83,9 +82,17 @@ public sealed class DegradationTests
         {
             var d = Degradation.Sample(rng, DegradationRanges.None);
             Assert.All(Effects(d, DegradationRanges.None), e => Assert.Equal(0, e.Value));
-            Assert.Equal(new Degradation() with { Seed = d.Seed, WobblePeriodPx = d.WobblePeriodPx,
-                WobblePhase = d.WobblePhase, ElasticSigmaPx = d.ElasticSigmaPx, LightingAngleDegrees = d.LightingAngleDegrees,
-                RuledLineOffsetPx = d.RuledLineOffsetPx, BleedShift = d.BleedShift, BleedOffsetYPx = d.BleedOffsetYPx }, d);
+            Assert.Equal(new Degradation() with
+            {
+                Seed = d.Seed,
+                WobblePeriodPx = d.WobblePeriodPx,
+                WobblePhase = d.WobblePhase,
+                ElasticSigmaPx = d.ElasticSigmaPx,
+                LightingAngleDegrees = d.LightingAngleDegrees,
+                RuledLineOffsetPx = d.RuledLineOffsetPx,
+                BleedShift = d.BleedShift,
+                BleedOffsetYPx = d.BleedOffsetYPx
+            }, d);
         }
     }
 

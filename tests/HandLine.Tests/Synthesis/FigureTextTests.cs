@@ -2,7 +2,6 @@ using System.Globalization;
 using System.Text.RegularExpressions;
 using HandLine.Model;
 using HandLine.Synthesis;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 

@@ -1,7 +1,6 @@
 using HandLine.Model;
 using HandLine.Synthesis;
 using static HandLine.Tests.Synthesis.SynthesisFixtures;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 

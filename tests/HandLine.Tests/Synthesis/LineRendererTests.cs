@@ -2,7 +2,6 @@ using HandLine.Imaging;
 using HandLine.Model;
 using HandLine.Synthesis;
 using static HandLine.Tests.Synthesis.SynthesisFixtures;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 

@@ -4,7 +4,6 @@ using HandLine.Model;
 using HandLine.Synthesis;
 using SkiaSharp;
 using static HandLine.Tests.Synthesis.SynthesisFixtures;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 

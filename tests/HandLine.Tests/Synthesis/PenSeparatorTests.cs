@@ -1,5 +1,5 @@
+using HandLine.Formats;
 using HandLine.Imaging;
-using HandLine.Scoring;
 using HandLine.Synthesis;
 
 namespace HandLine.Tests.Synthesis;

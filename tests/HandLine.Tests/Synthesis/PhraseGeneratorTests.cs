@@ -1,6 +1,5 @@
 using HandLine.Model;
 using HandLine.Synthesis;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 

@@ -1,5 +1,4 @@
 using HandLine.Synthesis;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 

@@ -1,8 +1,7 @@
 using System.Text.Json;
-using HandLine.Scoring;
+using HandLine.Formats;
 using HandLine.Synthesis;
 using static HandLine.Tests.Synthesis.SynthesisFixtures;
-using Xunit;
 
 namespace HandLine.Tests.Synthesis;
 

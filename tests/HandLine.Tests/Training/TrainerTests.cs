@@ -97,8 +97,8 @@ public sealed class TrainerTests : IDisposable
     public void BatchesGroupSimilarWidthsAndDependOnlyOnSeedAndEpoch()
     {
         var lines = PatternLines(40, 5);
-        var a = Trainer.BatchOrder(lines, 8, seed: 1, epoch: 0);
-        var b = Trainer.BatchOrder(lines, 8, seed: 1, epoch: 0);
+        var a = BatchPlan.BatchOrder(lines, 8, seed: 1, epoch: 0);
+        var b = BatchPlan.BatchOrder(lines, 8, seed: 1, epoch: 0);
         Assert.Equal(a.Select(x => x.Select(s => s.Id)), b.Select(x => x.Select(s => s.Id)));
         Assert.Equal(40, a.Sum(x => x.Length));
         // Bucketing: a batch's width spread is small compared with the spread of the whole set.
@@ -111,11 +111,11 @@ public sealed class TrainerTests : IDisposable
     {
         var lines = PatternLines(40, 5);
         var options = new TrainingOptions { BatchSize = 8, Seed = 1, EpochLines = 24 }; // 3 batches an epoch, 5 a pass
-        var walked = Enumerable.Range(0, 5).SelectMany(e => Trainer.EpochBatches(lines, options, e, 3, 5));
-        var passes = Enumerable.Range(0, 3).SelectMany(p => Trainer.BatchOrder(lines, 8, 1, p));
+        var walked = Enumerable.Range(0, 5).SelectMany(e => BatchPlan.EpochBatches(lines, options, e, 3, 5));
+        var passes = Enumerable.Range(0, 3).SelectMany(p => BatchPlan.BatchOrder(lines, 8, 1, p));
         Assert.Equal(passes.Select(b => string.Join(",", b.Select(x => x.Id))), walked.Select(b => string.Join(",", b.Select(x => x.Id))));
         // Consecutive passes are shuffled differently.
-        Assert.NotEqual(Trainer.BatchOrder(lines, 8, 1, 0).Select(b => b[0].Id), Trainer.BatchOrder(lines, 8, 1, 1).Select(b => b[0].Id));
+        Assert.NotEqual(BatchPlan.BatchOrder(lines, 8, 1, 0).Select(b => b[0].Id), BatchPlan.BatchOrder(lines, 8, 1, 1).Select(b => b[0].Id));
     }
 
     [Theory]
@@ -124,7 +124,7 @@ public sealed class TrainerTests : IDisposable
     [InlineData(1.0, "[####################]")]
     [InlineData(1.7, "[####################]")]
     public void TheProgressBarShowsTheEpochShareDone(double done, string expected) =>
-        Assert.Equal(expected, Trainer.Bar(done));
+        Assert.Equal(expected, TrainingProgress.Bar(done));
 
     [Fact]
     public void TheStepSizeHoldsWhileTheLossFallsInTheAllBlankPhase()
@@ -134,17 +134,17 @@ public sealed class TrainerTests : IDisposable
         var options = new TrainingOptions { PlateauEpochs = 2, Patience = 4 };
         var s = new TrainingState(0, 0, 0, 0, 0, 0.001, double.PositiveInfinity, 0, 0, null);
         foreach (var loss in new[] { 4.6, 3.7, 3.6, 3.5, 3.4 })
-            s = Trainer.AfterEpoch(s, 1.0, loss, options);
+            s = TrainingSchedule.AfterEpoch(s, 1.0, loss, options);
         Assert.Equal(0.001, s.LearningRate);
         Assert.Equal(0, s.EpochsSinceBest);
         Assert.Equal(3.4, s.BestLoss);
 
-        s = Trainer.AfterEpoch(s, 1.0, 3.45, options); // neither better: one epoch without progress
+        s = TrainingSchedule.AfterEpoch(s, 1.0, 3.45, options); // neither better: one epoch without progress
         Assert.Equal((1, 0.001), (s.EpochsSinceBest, s.LearningRate));
-        s = Trainer.AfterEpoch(s, 1.0, 3.39, options); // 0.3 % lower is below the 0.5 % that counts: the second halves the step size
+        s = TrainingSchedule.AfterEpoch(s, 1.0, 3.39, options); // 0.3 % lower is below the 0.5 % that counts: the second halves the step size
         Assert.Equal((2, 0.0005), (s.EpochsSinceBest, s.LearningRate));
         Assert.Equal(3.39, s.BestLoss);
-        s = Trainer.AfterEpoch(s, 0.9, 3.5, options); // a better CER alone is progress again
+        s = TrainingSchedule.AfterEpoch(s, 0.9, 3.5, options); // a better CER alone is progress again
         Assert.Equal((0, 0.0005, 0.9), (s.EpochsSinceBest, s.LearningRate, s.BestCer));
     }
 
@@ -157,7 +157,7 @@ public sealed class TrainerTests : IDisposable
         Assert.DoesNotContain("best_loss", json);
         var back = System.Text.Json.JsonSerializer.Deserialize<TrainingState>(json)!;
         Assert.Null(back.BestLoss);
-        var next = Trainer.AfterEpoch(back, 0.25, 2.0, new TrainingOptions());
+        var next = TrainingSchedule.AfterEpoch(back, 0.25, 2.0, new TrainingOptions());
         Assert.Equal((0, 2.0), (next.EpochsSinceBest, next.BestLoss));
     }
 }

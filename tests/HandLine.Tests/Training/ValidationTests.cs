@@ -1,6 +1,7 @@
 using System.Globalization;
 using HandLine.Decoding;
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
 using HandLine.Scoring;
@@ -84,12 +85,12 @@ public sealed class ValidationTests : IDisposable
         var manifest = Path.Combine(_dir, "lines.tsv");
         Manifest.Write(manifest, ["group", "family"], [("0.png", "Recd 7/6", ["sketch", "humor-sans"]), ("1.png", "hay 2 cwt", ["sketch", ""])]);
 
-        var (samples, errors) = TrainingData.Load([manifest], new FeatureConfig(LineHeight: 24, FrameStride: 2), CharacterSet.Default, new ImagingOptions(), 1);
+        var (samples, errors) = TrainingData.Load([manifest], new FeatureConfig(LineHeight: 24, FrameStride: 2), CharacterSet.Default, InputLimits.Default, 1);
 
         Assert.Empty(errors);
         Assert.Equal(new (string?, string?)[] { ("humor-sans", "sketch"), ("", "sketch") }, samples.Select(s => (s.Family, s.Group)));
         Manifest.Write(manifest, [("0.png", "Recd 7/6")]);
-        Assert.Equal((null, null), TrainingData.Load([manifest], new FeatureConfig(LineHeight: 24, FrameStride: 2), CharacterSet.Default, new ImagingOptions(), 1).Samples
+        Assert.Equal((null, null), TrainingData.Load([manifest], new FeatureConfig(LineHeight: 24, FrameStride: 2), CharacterSet.Default, InputLimits.Default, 1).Samples
             .Select(s => (s.Family, s.Group)).Single());
     }
 }

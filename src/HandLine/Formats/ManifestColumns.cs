@@ -1,4 +1,4 @@
-namespace HandLine.Scoring;
+namespace HandLine.Formats;
 
 /// <summary>
 /// The optional header that names a manifest's extra columns: <c>#columns&lt;TAB&gt;path&lt;TAB&gt;text&lt;TAB&gt;NAME...</c>.

@@ -1,6 +1,6 @@
 using HandLine.Decoding;
 
-namespace HandLine.Batch;
+namespace HandLine.Recognition;
 
 /// <summary>One recognised line of one source, as written to the reports.</summary>
 public sealed record LineResult(

@@ -1,6 +1,6 @@
 using System.Text;
 
-namespace HandLine.Scoring;
+namespace HandLine.Formats;
 
 /// <summary>
 /// Splits text into the units that are scored: Unicode code points for CER, whitespace-separated

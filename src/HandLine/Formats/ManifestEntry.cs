@@ -1,4 +1,4 @@
-namespace HandLine.Scoring;
+namespace HandLine.Formats;
 
 /// <summary>
 /// One manifest line: the image path in canonical form ('/' separators, relative to the manifest's

@@ -1,7 +1,6 @@
-using HandLine.Scoring;
-using Xunit;
+using HandLine.Formats;
 
-namespace HandLine.Tests.Scoring;
+namespace HandLine.Tests.Formats;
 
 /// <summary>
 /// NFC cases from the Unicode Standard: UAX #15 (Unicode Normalization Forms) and chapter 3.12

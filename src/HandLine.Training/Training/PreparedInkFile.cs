@@ -1,9 +1,9 @@
 using System.Security.Cryptography;
 using System.Text;
 using System.Text.Json;
+using System.Text.Json.Serialization;
 using HandLine.Features;
-using HandLine.Imaging;
-using HandLine.Scoring;
+using HandLine.Formats;
 
 namespace HandLine.Training;
 
@@ -15,9 +15,16 @@ namespace HandLine.Training;
 /// imaging settings and the build of this library (any code change may change the ink). Anything else —
 /// another key, a damaged or truncated file — means the lines are prepared afresh and the file rewritten.
 /// </summary>
-public static class PreparedLines
+public static class PreparedInkFile
 {
-    private static readonly byte[] Magic = "HLPREP1\n"u8.ToArray();
+    // A ContainerFile since HLPREP1 (which had no checksum); older files are simply prepared afresh.
+    private static readonly ContainerKind Kind = new("HLPREP02", "prepared lines", "prepared lines", "not a prepared-lines file");
+
+    /// <summary>The container's header: which preparation the lines come from, and their shape.</summary>
+    private sealed record Header(
+        [property: JsonPropertyName("key")] string Key,
+        [property: JsonPropertyName("count")] int Count,
+        [property: JsonPropertyName("height")] int Height);
 
     /// <summary>One manifest line: its ink (row-major, 0 paper .. 255 ink) or why it could not be prepared.</summary>
     public sealed record Line(byte[]? Ink, int Width, InputException? Failure);
@@ -31,26 +38,27 @@ public static class PreparedLines
     /// (atomically; a failure to write is reported through <paramref name="note"/> and otherwise ignored).
     /// <paramref name="cancel"/> stops a preparation with an <see cref="OperationCanceledException"/>, writing nothing.
     /// </summary>
-    public static IReadOnlyList<Line> Load(string manifest, IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging,
+    public static IReadOnlyList<Line> Load(string manifest, IReadOnlyList<ManifestEntry> entries, LinePreparer preparer,
         int threads, bool keep, Action<string>? note = null, CancellationToken cancel = default)
     {
         ArgumentNullException.ThrowIfNull(manifest);
         ArgumentNullException.ThrowIfNull(entries);
-        ArgumentNullException.ThrowIfNull(imaging);
-        if (!keep) return Prepare(entries, imaging, threads, cancel);
+        ArgumentNullException.ThrowIfNull(preparer);
+        if (!keep) return Prepare(entries, preparer, threads, cancel);
 
         var path = CachePath(manifest);
-        var key = Key(entries, imaging);
-        var cached = TryRead(path, key, entries.Count, imaging.LineHeight);
+        var key = Key(entries, preparer);
+        var height = preparer.Features.LineHeight;
+        var cached = TryRead(path, key, entries.Count, height);
         if (cached is not null)
         {
             note?.Invoke($"read {entries.Count} prepared lines from {path}");
             return cached;
         }
-        var lines = Prepare(entries, imaging, threads, cancel);
+        var lines = Prepare(entries, preparer, threads, cancel);
         try
         {
-            Write(path, key, imaging.LineHeight, lines);
+            Write(path, key, height, lines);
             note?.Invoke($"kept {lines.Length} prepared lines in {path}");
         }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
@@ -60,7 +68,7 @@ public static class PreparedLines
         return lines;
     }
 
-    private static Line[] Prepare(IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging, int threads, CancellationToken cancel)
+    private static Line[] Prepare(IReadOnlyList<ManifestEntry> entries, LinePreparer preparer, int threads, CancellationToken cancel)
     {
         var lines = new Line[entries.Count];
         var parallel = new ParallelOptions
@@ -73,7 +81,8 @@ public static class PreparedLines
             var e = entries[i];
             try
             {
-                var line = LineNormaliser.Normalise(ImageLoader.Load(e.FullPath, imaging), imaging, e.FullPath);
+                // Transcription's stages, stopping before the line finder: a training image is one line already.
+                var line = preparer.Normalise(preparer.Load(e.FullPath), e.FullPath);
                 if (!line.HasInk)
                     throw new InputException(e.FullPath, "normalise", "no ink found: the image looks blank");
                 lines[i] = new Line(LineSample.ToBytes(line.Ink.Pixels), line.Ink.Width, null);
@@ -86,15 +95,17 @@ public static class PreparedLines
         return lines;
     }
 
-    private static string Key(IReadOnlyList<ManifestEntry> entries, ImagingOptions imaging)
+    private static string Key(IReadOnlyList<ManifestEntry> entries, LinePreparer preparer)
     {
         using var hash = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
         void Add(string s) => hash.AppendData(Encoding.UTF8.GetBytes(s + "\n"));
-        // The code that prepares a line lives in the runtime library (LinePreparation) and the packing here: both
+        // The code that prepares a line lives in the runtime library (LinePreparer) and the packing here: both
         // identities key the file. Deterministic builds, no commit id in the version: same code, same id.
-        Add(typeof(LinePreparation).Assembly.ManifestModule.ModuleVersionId.ToString());
-        Add(typeof(PreparedLines).Assembly.ManifestModule.ModuleVersionId.ToString());
-        Add(JsonSerializer.Serialize(imaging));
+        Add(typeof(LinePreparer).Assembly.ManifestModule.ModuleVersionId.ToString());
+        Add(typeof(PreparedInkFile).Assembly.ManifestModule.ModuleVersionId.ToString());
+        Add(JsonSerializer.Serialize(preparer.Features));
+        Add(JsonSerializer.Serialize(preparer.Tuning));
+        Add(JsonSerializer.Serialize(preparer.Limits));
         foreach (var e in entries)
         {
             var info = new FileInfo(e.FullPath);
@@ -108,43 +119,46 @@ public static class PreparedLines
         if (!File.Exists(path)) return null;
         try
         {
-            using var reader = new BinaryReader(new BufferedStream(File.OpenRead(path), 1 << 20));
-            if (!reader.ReadBytes(Magic.Length).AsSpan().SequenceEqual(Magic) || reader.ReadString() != key) return null;
-            if (reader.ReadInt32() != count || reader.ReadInt32() != height) return null;
-            var lines = new Line[count];
-            for (var i = 0; i < count; i++)
+            return ContainerFile.Read(path, Kind, c =>
             {
-                if (reader.ReadBoolean())
+                var header = JsonSerializer.Deserialize<Header>(c.Header);
+                if (header is null || header.Key != key || header.Count != count || header.Height != height) return null;
+                var reader = c.Payload;
+                var lines = new Line[count];
+                for (var i = 0; i < count; i++)
                 {
-                    var width = reader.ReadInt32();
-                    if (width < 1 || width > 1_000_000) return null;
-                    var ink = reader.ReadBytes(width * height);
-                    if (ink.Length != width * height) return null;
-                    lines[i] = new Line(ink, width, null);
+                    if (reader.ReadBoolean())
+                    {
+                        var width = reader.ReadInt32();
+                        if (width < 1 || (long)width * height > c.PayloadLength) return null;
+                        var ink = reader.ReadBytes(width * height);
+                        if (ink.Length != width * height) return null;
+                        lines[i] = new Line(ink, width, null);
+                    }
+                    else
+                    {
+                        var (file, stage, reason) = (reader.ReadString(), reader.ReadString(), reader.ReadString());
+                        lines[i] = new Line(null, 0, new InputException(file, stage, reason));
+                    }
                 }
-                else
-                {
-                    var (file, stage, reason) = (reader.ReadString(), reader.ReadString(), reader.ReadString());
-                    lines[i] = new Line(null, 0, new InputException(file, stage, reason));
-                }
-            }
-            return reader.BaseStream.Position == reader.BaseStream.Length ? lines : null;
+                return lines;
+            });
         }
-        catch (Exception e) when (e is IOException or EndOfStreamException or FormatException)
+        catch (InputException)
         {
-            return null; // damaged or truncated: prepare afresh
+            return null; // another key, or damaged or truncated: prepare afresh
+        }
+        catch (IOException)
+        {
+            return null;
         }
     }
 
     private static void Write(string path, string key, int height, IReadOnlyList<Line> lines)
     {
-        var temp = $"{path}.{Environment.ProcessId}.tmp"; // runs started together may all write it
-        using (var writer = new BinaryWriter(new BufferedStream(File.Create(temp), 1 << 20)))
+        var header = JsonSerializer.SerializeToUtf8Bytes(new Header(key, lines.Count, height));
+        ContainerFile.Write(path, Kind, header, writer =>
         {
-            writer.Write(Magic);
-            writer.Write(key);
-            writer.Write(lines.Count);
-            writer.Write(height);
             foreach (var l in lines)
             {
                 writer.Write(l.Ink is not null);
@@ -160,7 +174,6 @@ public static class PreparedLines
                     writer.Write(l.Failure.Reason);
                 }
             }
-        }
-        File.Move(temp, path, overwrite: true);
+        });
     }
 }

@@ -1,6 +1,6 @@
 using System.Text;
 
-namespace HandLine.Scoring;
+namespace HandLine.Formats;
 
 /// <summary>
 /// Truth manifest: UTF-8 text, one line per image, <c>relative/path.png&lt;TAB&gt;transcript</c>.

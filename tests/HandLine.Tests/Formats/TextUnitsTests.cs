@@ -1,7 +1,7 @@
+using HandLine.Formats;
 using HandLine.Scoring;
-using Xunit;
 
-namespace HandLine.Tests.Scoring;
+namespace HandLine.Tests.Formats;
 
 public sealed class TextUnitsTests
 {

@@ -1,4 +1,4 @@
-namespace HandLine.Scoring;
+namespace HandLine.Formats;
 
 /// <summary>
 /// The usable lines of a manifest and one error per unusable line. <see cref="Columns"/> are the names of

@@ -1,14 +1,14 @@
 using HandLine.Features;
+using HandLine.Formats;
 using HandLine.Imaging;
 using HandLine.Model;
-using HandLine.Scoring;
 using HandLine.Synthesis;
 using HandLine.Tests.Synthesis;
 using HandLine.Training;
 
 namespace HandLine.Tests.Training;
 
-public sealed class PreparedLinesTests : IDisposable
+public sealed class PreparedInkFileTests : IDisposable
 {
     private readonly string _dir = Directory.CreateTempSubdirectory("hl-prep-").FullName;
     private static readonly FeatureConfig Features = new(LineHeight: 24, FrameStride: 2);
@@ -31,7 +31,7 @@ public sealed class PreparedLinesTests : IDisposable
     private static (IReadOnlyList<LineSample> Samples, IReadOnlyList<InputException> Errors, List<string> Notes) Load(string manifest, bool keep)
     {
         var notes = new List<string>();
-        var (samples, errors) = TrainingData.Load([manifest], Features, CharacterSet.Default, new ImagingOptions(), 1, keep, notes.Add);
+        var (samples, errors) = TrainingData.Load([manifest], Features, CharacterSet.Default, InputLimits.Default, 1, keep, notes.Add);
         return (samples, errors, notes);
     }
 
@@ -49,7 +49,7 @@ public sealed class PreparedLinesTests : IDisposable
         using var stop = new CancellationTokenSource();
         stop.Cancel();
         Assert.ThrowsAny<OperationCanceledException>(() => TrainingData.Load([manifest], Features, CharacterSet.Default,
-            new ImagingOptions(), 1, keepPrepared: true, cancel: stop.Token));
+            InputLimits.Default, 1, keepPrepared: true, cancel: stop.Token));
         Assert.Empty(Directory.GetFiles(_dir, "*.prepared*"));
     }
 
@@ -58,7 +58,7 @@ public sealed class PreparedLinesTests : IDisposable
     {
         var manifest = WriteManifest();
         var fresh = Load(manifest, keep: false);
-        Assert.False(File.Exists(PreparedLines.CachePath(manifest)));
+        Assert.False(File.Exists(PreparedInkFile.CachePath(manifest)));
         Assert.Equal(3, fresh.Samples.Count);
         Assert.Contains("blank.png", Assert.Single(fresh.Errors).Path);
 
@@ -86,7 +86,7 @@ public sealed class PreparedLinesTests : IDisposable
         Assert.Equal(changed.Samples[2].Ink().Pixels, changed.Samples[1].Ink().Pixels);
 
         // Cut short, as a full disk or a killed run would leave it (though writes go through a temp file).
-        var cache = PreparedLines.CachePath(manifest);
+        var cache = PreparedInkFile.CachePath(manifest);
         var bytes = File.ReadAllBytes(cache);
         File.WriteAllBytes(cache, bytes[..(bytes.Length - 10)]);
         var damaged = Load(manifest, keep: true);
@@ -101,7 +101,7 @@ public sealed class PreparedLinesTests : IDisposable
         var manifest = WriteManifest();
         Load(manifest, keep: true);
         var notes = new List<string>();
-        var (samples, _) = TrainingData.Load([manifest], Features with { LineHeight = 32 }, CharacterSet.Default, new ImagingOptions(), 1, true, notes.Add);
+        var (samples, _) = TrainingData.Load([manifest], Features with { LineHeight = 32 }, CharacterSet.Default, InputLimits.Default, 1, true, notes.Add);
         Assert.StartsWith("kept", Assert.Single(notes));
         Assert.All(samples, s => Assert.Equal(32, s.Ink().Height));
     }

@@ -1,8 +1,8 @@
 using System.Text;
-using HandLine.Scoring;
-using Xunit;
+using HandLine.Formats;
+using HandLine.Tests.Scoring;
 
-namespace HandLine.Tests.Scoring;
+namespace HandLine.Tests.Formats;
 
 public sealed class ManifestTests
 {

@@ -1,4 +1,4 @@
-namespace HandLine.Scoring;
+namespace HandLine.Formats;
 
 /// <summary>
 /// Canonical form of a manifest path: '/' separators, no "." or empty segments, ".." resolved.

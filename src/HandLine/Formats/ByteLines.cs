@@ -1,4 +1,4 @@
-namespace HandLine.Scoring;
+namespace HandLine.Formats;
 
 /// <summary>
 /// Splits a file's bytes into lines before decoding, so each line can be checked on its own and one

@@ -1,0 +1,80 @@
+using HandLine.Imaging;
+
+namespace HandLine.Features;
+
+/// <summary>
+/// The stages before the network, in order, made once for one feature configuration (a model's, or the one a
+/// training run gives its model): load (with the input limits) → find lines → normalise → extract features.
+/// Transcription, the benchmarks and training all prepare lines through this one object, so they cannot drift
+/// apart; training stops after normalisation (it keeps the ink and extracts features as it trains). Every
+/// setting is checked when it is made, none for each image. The line settings come only from
+/// <see cref="FeatureConfig"/>; the tuning values and the limits have no say over them.
+/// </summary>
+public sealed class LinePreparer
+{
+    private readonly LineFinder _finder;
+    private readonly LineNormaliser _normaliser;
+
+    /// <param name="features">What the model fixes: line height, slant correction, binarisation, features.</param>
+    /// <param name="tuning">The imaging stage's tuning values; null for the defaults.</param>
+    /// <param name="limits">Safety limits on images and lines; null for the defaults.</param>
+    /// <exception cref="ArgumentException">A setting is out of range, or the settings do not fit together.</exception>
+    public LinePreparer(FeatureConfig features, ImagingOptions? tuning = null, InputLimits? limits = null)
+    {
+        ArgumentNullException.ThrowIfNull(features);
+        Features = features;
+        Tuning = tuning ?? new ImagingOptions();
+        Limits = limits ?? InputLimits.Default;
+        _finder = new LineFinder(Tuning);
+        features.Validate();
+        _normaliser = new LineNormaliser(features.LineHeight, features.CorrectSlant, features.Binarisation, Tuning, Limits);
+    }
+
+    public FeatureConfig Features { get; }
+
+    public ImagingOptions Tuning { get; }
+
+    public InputLimits Limits { get; }
+
+    /// <summary>Stage 1: an image file's bytes to luminance, within the limits.</summary>
+    public GrayImage Load(byte[] imageBytes, string nameForErrors) => ImageLoader.Load(imageBytes, nameForErrors, Limits);
+
+    /// <summary>Stage 1 from a file (size checked before reading).</summary>
+    public GrayImage Load(string path) => ImageLoader.Load(path, Limits);
+
+    /// <summary>Stage 2: a page to its text lines, top to bottom (one for a line image).</summary>
+    public IReadOnlyList<LineRegion> FindLines(GrayImage page) => _finder.Split(page);
+
+    /// <summary>Stage 3: one line image to normalised ink of the model's line height.</summary>
+    public NormalisedLine Normalise(GrayImage line, string nameForErrors) => _normaliser.Normalise(line, nameForErrors);
+
+    /// <summary>Stage 4: normalised ink to the frames the network sees.</summary>
+    public FeatureSequence Extract(NormalisedLine line) => ColumnFeatures.Extract(line, Features);
+
+    /// <summary>Stages 3 and 4 for one line image.</summary>
+    public PreparedLine Prepare(GrayImage line, string nameForErrors = "line image")
+    {
+        var normalised = Normalise(line, nameForErrors);
+        return new PreparedLine(normalised, Extract(normalised));
+    }
+
+    /// <summary>
+    /// Stages 1 to 4 for one image: its lines that hold ink, top to bottom. Lines without ink are left out; an
+    /// image with no ink at all is an <see cref="InputException"/>.
+    /// </summary>
+    public IReadOnlyList<PreparedLine> PreparePage(byte[] imageBytes, string nameForErrors)
+    {
+        ArgumentNullException.ThrowIfNull(imageBytes);
+        ArgumentNullException.ThrowIfNull(nameForErrors);
+        var page = Load(imageBytes, nameForErrors);
+        // As before this class: a line's normalisation error names "line image", not the file (left for a change of
+        // its own, as it changes errors.jsonl).
+        var prepared = FindLines(page)
+            .Select(region => Prepare(region.Image))
+            .Where(p => p.Line.HasInk)
+            .ToArray();
+        if (prepared.Length == 0)
+            throw new InputException(nameForErrors, "normalise", "no ink found: the image looks blank");
+        return prepared;
+    }
+}
