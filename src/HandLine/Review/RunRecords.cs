@@ -16,19 +16,7 @@ public static class RunRecords
     public static IReadOnlyList<RunRecord> Read(string runDir)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(runDir);
-        var file = Path.Combine(runDir, RunReader.LinesFileName);
-        byte[] bytes;
-        try
-        {
-            bytes = File.ReadAllBytes(file);
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or NotSupportedException)
-        {
-            var reason = e is FileNotFoundException or DirectoryNotFoundException
-                ? $"no {RunReader.LinesFileName} in the run folder"
-                : $"cannot read {RunReader.LinesFileName}: {e.Message}";
-            throw new InputException(file, Stage, reason, e);
-        }
+        var bytes = RunReader.ReadLinesFile(runDir, out var file);
 
         var records = new List<RunRecord>();
         var seen = new HashSet<(string, int)>();

@@ -44,19 +44,7 @@ public static class RunReader
     public static IReadOnlyList<RunLine> ReadLines(string runDir)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(runDir);
-        var file = Path.Combine(runDir, LinesFileName);
-        byte[] bytes;
-        try
-        {
-            bytes = File.ReadAllBytes(file);
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or NotSupportedException)
-        {
-            var reason = e is FileNotFoundException or DirectoryNotFoundException
-                ? $"no {LinesFileName} in the run folder"
-                : $"cannot read {LinesFileName}: {e.Message}";
-            throw new InputException(file, Stage, reason, e);
-        }
+        var bytes = ReadLinesFile(runDir, out var file);
 
         var result = new List<RunLine>();
         var seen = new HashSet<(string, int)>();
@@ -109,4 +97,22 @@ public static class RunReader
 
     private static InputException Error(string file, int lineNumber, string reason, Exception? inner = null) =>
         new(file, Stage, $"line {lineNumber}: {reason}", inner);
+
+    /// <summary>The bytes of a run's <c>lines.jsonl</c>, for every reader of it.</summary>
+    /// <exception cref="InputException">Stage "run": the file is missing or cannot be read.</exception>
+    internal static byte[] ReadLinesFile(string runDir, out string file)
+    {
+        file = Path.Combine(runDir, LinesFileName);
+        try
+        {
+            return File.ReadAllBytes(file);
+        }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException or NotSupportedException)
+        {
+            var reason = e is FileNotFoundException or DirectoryNotFoundException
+                ? $"no {LinesFileName} in the run folder"
+                : $"cannot read {LinesFileName}: {e.Message}";
+            throw new InputException(file, Stage, reason, e);
+        }
+    }
 }
