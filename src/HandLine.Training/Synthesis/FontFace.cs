@@ -27,15 +27,8 @@ public sealed class FontFace : IDisposable
         Family = family ?? System.IO.Path.GetFileNameWithoutExtension(path);
         Group = group ?? Ungrouped;
         _typeface = typeface;
-        // Computed once: line synthesis asks Covers for every line and every font.
-        _coveredDefault = new HashSet<int>();
         using var font = new SKFont(typeface, 40);
-        foreach (var symbol in CharacterSet.Default.Symbols)
-        {
-            var rune = Rune.GetRuneAt(symbol, 0);
-            if (HasRealGlyph(font, rune))
-                _coveredDefault.Add(rune.Value);
-        }
+        _coveredDefault = CoveredDefaultSymbols(rune => HasRealGlyph(font, rune));
     }
 
     internal FontFace(string path, HersheyFont strokes, string? family = null, string? group = null)
@@ -45,14 +38,15 @@ public sealed class FontFace : IDisposable
         Family = family ?? System.IO.Path.GetFileNameWithoutExtension(path);
         Group = group ?? Ungrouped;
         _strokes = strokes;
-        _coveredDefault = new HashSet<int>();
-        foreach (var symbol in CharacterSet.Default.Symbols)
-        {
-            var rune = Rune.GetRuneAt(symbol, 0);
-            if (strokes.Glyph(rune.Value) is not null)
-                _coveredDefault.Add(rune.Value);
-        }
+        _coveredDefault = CoveredDefaultSymbols(rune => strokes.Glyph(rune.Value) is not null);
     }
+
+    /// <summary>
+    /// The code points of <see cref="CharacterSet.Default"/> the face can draw, computed once: line synthesis asks
+    /// <c>Covers</c> for every line and every font.
+    /// </summary>
+    private static HashSet<int> CoveredDefaultSymbols(Func<Rune, bool> canDraw) =>
+        CharacterSet.Default.Symbols.Select(s => Rune.GetRuneAt(s, 0)).Where(canDraw).Select(r => r.Value).ToHashSet();
 
     /// <summary>True for a single-stroke (Hershey) face, drawn with a pen rather than filled.</summary>
     public bool IsStrokeFace => _strokes is not null;
