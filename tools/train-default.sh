@@ -4,7 +4,8 @@
 # from new weights in parts, one or more per working session. .cache does not survive a fresh checkout, so each
 # session ends by committing the part's best state as models/default.hlm, and the next part starts from that file
 # (--from: the weights carry over, Adam's moment estimates start afresh). Rerunning a part in the same checkout
-# resumes it from its checkpoint. Usage: tools/train-default.sh PART [MINUTES] (MINUTES: the part's training time
+# resumes it from its checkpoint. HANDLINE_TRAIN_THREADS (default 2) sets the training threads: 1 is faster
+# when other work shares the two cores. Usage: tools/train-default.sh PART [MINUTES] (MINUTES: the part's training time
 # over all its runs, preparing lines not counted; each part's default is in the table below). To redo a part
 # exactly, check out the commit whose models/default.hlm is the previous part's result.
 set -euo pipefail
@@ -28,6 +29,8 @@ case "$part" in
   # single-stroke faces, weighted by group), the text mixture (names "mixed"), hand-like variation within lines
   # and pen-drawn separators; validation on 13 held-out families (leave-style-out), reported per family.
   4) sets=(mixed-1:60000:31 mnist-train4:20000:33); step=0.0005; planned=120 ;;
+  # fresh lines of the same kinds, from models/broad.hlm (part 4's result)
+  5) sets=(mixed-2:50000:35 mnist-train5:15000:37); step=0.0005; planned=110 ;;
   *) echo "tools/train-default.sh: part $part is not defined yet" >&2; exit 2 ;;
 esac
 minutes="${2:-$planned}"
@@ -44,6 +47,6 @@ result=models/default.hlm
 (( part >= 4 )) && result=models/broad.hlm
 (( part >= 5 )) && start=(--from models/broad.hlm)
 hl train "${start[@]}" --train "${manifests[@]}" --valid "$s/valid-mixed.tsv" --out "$work/default-part$part.hlm" \
-  --learning-rate "$step" --epoch-lines 25000 --seed "$part" --threads 2 --batch 32 --epochs 40 \
+  --learning-rate "$step" --epoch-lines 25000 --seed "$part" --threads "${HANDLINE_TRAIN_THREADS:-2}" --batch 32 --epochs 40 \
   --max-minutes "$minutes" --resume --keep-prepared
 cp "$work/default-part$part.hlm" "$result"
