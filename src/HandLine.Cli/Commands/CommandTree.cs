@@ -24,6 +24,7 @@ internal static class CommandTree
             LmCommand.Create(),
             WordsCommand.Create(),
             CalibrateCommand.Create(),
+            FitTemperatureCommand.Create(),
             BenchDecodeCommand.Create(),
             TuneDecodeCommand.Create(),
         };

@@ -71,14 +71,31 @@ public sealed class LineModel : IDisposable
         return new LineModel(header, charset, grown, "unsaved");
     }
 
-    /// <summary>Saves with an updated header; returns the new model id.</summary>
+    /// <summary>
+    /// Saves with an updated header; returns the new model id. The temperature goes back to 1: it was fitted to
+    /// the weights before this training.
+    /// </summary>
     public string Save(string path, TrainingRecord? training, double? validationCer) =>
         ModelFile.Save(path, Header with
         {
             Training = training ?? Header.Training,
             ValidationCer = validationCer,
             CreatedUtc = DateTime.UtcNow.ToString("O"),
+            Temperature = 1.0,
+            TemperatureFit = null,
         }, Network);
+
+    /// <summary>Saves the same weights with a fitted temperature; returns the new model id.</summary>
+    public string SaveWithTemperature(string path, double temperature, TemperatureRecord fit)
+    {
+        ArgumentNullException.ThrowIfNull(fit);
+        if (!(temperature > 0) || double.IsInfinity(temperature))
+            throw new ArgumentOutOfRangeException(nameof(temperature), "must be a positive finite number");
+        return ModelFile.Save(path, Header with { Temperature = temperature, TemperatureFit = fit }, Network);
+    }
+
+    /// <summary>The temperature the outputs are divided by (see <see cref="Posteriors.Tempered"/>).</summary>
+    public double Temperature => Header.Temperature;
 
     /// <summary>Posteriors for one line.</summary>
     public Posteriors Run(FeatureSequence line) => Run([line])[0];
@@ -103,7 +120,7 @@ public sealed class LineModel : IDisposable
         {
             var t = lines[b].Frames;
             var data = logProbs[..t, b, ..].contiguous().data<float>().ToArray();
-            result[b] = new Posteriors(t, classes, data);
+            result[b] = new Posteriors(t, classes, data).Tempered(Header.Temperature);
         }
         return result;
     }

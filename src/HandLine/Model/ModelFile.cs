@@ -83,6 +83,8 @@ public static class ModelFile
         {
             header.Features.Validate();
             header.Network.Validate(header.Features);
+            if (!(header.Temperature > 0) || double.IsInfinity(header.Temperature))
+                throw new ArgumentException($"temperature {header.Temperature} is not a positive finite number");
             charset = CharacterSet.FromString(header.Charset);
         }
         catch (ArgumentException e)

@@ -14,7 +14,20 @@ public sealed record TrainingRecord(
     [property: JsonPropertyName("minutes")] double Minutes,
     [property: JsonPropertyName("from_model")] string? FromModel);
 
-/// <summary>The JSON header of a model file.</summary>
+/// <summary>How a model's temperature was fitted: on which lines, and the calibration before and after.</summary>
+public sealed record TemperatureRecord(
+    [property: JsonPropertyName("lines_data")] string LinesData,
+    [property: JsonPropertyName("lines")] int Lines,
+    [property: JsonPropertyName("characters")] int Characters,
+    [property: JsonPropertyName("decoding")] string Decoding,
+    [property: JsonPropertyName("char_ece_before")] double CharEceBefore,
+    [property: JsonPropertyName("char_ece_after")] double CharEceAfter,
+    [property: JsonPropertyName("fitted_utc")] string FittedUtc);
+
+/// <summary>
+/// The JSON header of a model file. <see cref="Temperature"/> divides the network's outputs before decoding
+/// (1 = as trained; files written before it existed read as 1); training resets it, as new weights need a new fit.
+/// </summary>
 public sealed record ModelHeader(
     [property: JsonPropertyName("format_version")] int FormatVersion,
     [property: JsonPropertyName("charset")] string Charset,
@@ -23,7 +36,9 @@ public sealed record ModelHeader(
     [property: JsonPropertyName("training")] TrainingRecord? Training,
     [property: JsonPropertyName("validation_cer")] double? ValidationCer,
     [property: JsonPropertyName("created_utc")] string CreatedUtc,
-    [property: JsonPropertyName("weights_sha256")] string WeightsSha256 = "")
+    [property: JsonPropertyName("weights_sha256")] string WeightsSha256 = "",
+    [property: JsonPropertyName("temperature")] double Temperature = 1.0,
+    [property: JsonPropertyName("temperature_fit")] TemperatureRecord? TemperatureFit = null)
 {
     public const int CurrentFormatVersion = 1;
 }
