@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using HandLine.Cli.Commands;
 
 namespace HandLine.Tests.Batch;
 
@@ -9,8 +10,8 @@ public sealed class UnknownOptionTests : IDisposable
 
     public void Dispose() => Directory.Delete(_dir, recursive: true);
 
-    public static TheoryData<string> Commands() =>
-        ["transcribe", "score", "synth", "train", "merge", "bench-batch", "lm", "words", "calibrate", "bench-decode", "tune-decode", "sample", "review", "correct"];
+    /// <summary>Every command of the CLI, so a new one is covered the day it is added.</summary>
+    public static TheoryData<string> Commands() => new(CommandTree.Build().Subcommands.Select(c => c.Name));
 
     [Theory]
     [MemberData(nameof(Commands))]
