@@ -50,3 +50,8 @@ hl train "${start[@]}" --train "${manifests[@]}" --valid "$s/valid-mixed.tsv" --
   --learning-rate "$step" --epoch-lines 25000 --seed "$part" --threads "${HANDLINE_TRAIN_THREADS:-2}" --batch 32 --epochs 40 \
   --max-minutes "$minutes" --resume --keep-prepared
 cp "$work/default-part$part.hlm" "$result"
+# Training leaves the temperature at 1; the broad model's is fitted again on the validation families' font lines
+# (hands it did not train on), so its confidences hold on new hands (models/README.md, "Confidence").
+if (( part >= 4 )); then
+  hl fit-temperature "$s/valid/lines.tsv" --model "$result" --out "$result" --count 1000
+fi
