@@ -2,7 +2,7 @@ namespace HandLine.Imaging;
 
 /// <summary>
 /// A cheap first look at which way an image's text runs, from the ink alone (no model).
-/// <para>Axis: text lines are long and thin. Cut the ink into bands of rows with ink (as the line finder does) and
+/// <para>Axis: text lines are long and thin. Cut the ink into bands of rows with ink (much as the line finder does) and
 /// measure each band's length along the rows against its height: read the right way, a band is a line and many times
 /// longer than high; read across, the bands are letters or words of a turned line, or one block spanning a page, and
 /// about as long as high or shorter.</para>
