@@ -44,6 +44,25 @@ public sealed class FolderWalkTests : IDisposable
     }
 
     [Fact]
+    public void ATranscriptionOfAFolderWithACycleReadsEachImageOnceAndReportsTheCycleOnce()
+    {
+        var scans = BatchTestSupport.DemoCopies(_dir, 4);
+        var loop = Link("scans/merrowby-ledger/loop", "..");
+        var outDir = Path.Combine(_dir, "out");
+
+        var summary = TranscribeRun.Run([scans], new TranscribeOptions(outDir, BatchTestSupport.SmallModel(_dir)),
+            new BatchOptions { Progress = ProgressStyle.None }, null, default);
+
+        Assert.Equal((4, 1), (summary.Sources, summary.Errors));
+        var sources = File.ReadAllLines(Path.Combine(outDir, "lines.jsonl"))
+            .Select(l => System.Text.Json.JsonDocument.Parse(l).RootElement.GetProperty("source").GetString()).Distinct();
+        Assert.Equal(4, sources.Count());
+        var error = System.Text.Json.JsonDocument.Parse(File.ReadAllLines(Path.Combine(outDir, "errors.jsonl")).Single()).RootElement;
+        Assert.Equal(loop, error.GetProperty("path").GetString());
+        Assert.Contains("leads back into a folder already read", error.GetProperty("reason").GetString());
+    }
+
+    [Fact]
     public void ALinkToTheFolderThatHoldsTheInputIsNotFollowed()
     {
         Image("scans/a.png");
