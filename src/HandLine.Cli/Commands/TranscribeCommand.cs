@@ -1,6 +1,7 @@
 using System.CommandLine;
 using HandLine.Batch;
 using HandLine.Model;
+using HandLine.Recognition;
 
 namespace HandLine.Cli.Commands;
 
@@ -26,10 +27,27 @@ internal static class TranscribeCommand
             if (v is < 0 or > 1) r.AddError("--flag-below must be between 0 and 1");
         });
 
+        var rotation = new Option<string>("--rotation")
+        {
+            Description = "Which way the images' text is turned clockwise: auto (detect it for each image), 0, 90, 180 or 270",
+            DefaultValueFactory = _ => "auto",
+        };
+        rotation.Validators.Add(r =>
+        {
+            try
+            {
+                OrientationOptions.Parse(r.GetValueOrDefault<string>() ?? "");
+            }
+            catch (ArgumentException e)
+            {
+                r.AddError($"--rotation: {e.Message}");
+            }
+        });
+
         var decoding = new DecodingArguments();
         var command = new Command("transcribe", "Transcribe line or page images into text plus confidence reports")
         {
-            inputs, outDir, model, flagBelow,
+            inputs, outDir, model, flagBelow, rotation,
         };
         foreach (var option in decoding.All) command.Options.Add(option);
         var batch = BatchCommandOptions.AddTo(command, transcribing: true);
@@ -41,7 +59,7 @@ internal static class TranscribeCommand
                 // Built inside the guard: a bad word list or language model is a clear error, exit code 2.
                 var options = new TranscribeOptions(
                     parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow),
-                    Decoding: decoding.Build(parse));
+                    Decoding: decoding.Build(parse), Orientation: OrientationOptions.Parse(parse.GetValue(rotation)!));
                 TorchRuntime.SetThreads(batch.Threads(parse));
                 var s = TranscribeRun.Run(parse.GetValue(inputs)!, options, batch.Read(parse), Console.Error, cancel);
                 var say = batch.Quiet(parse) ? TextWriter.Null : Console.Error;

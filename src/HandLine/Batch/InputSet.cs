@@ -3,8 +3,9 @@ using HandLine.Formats;
 namespace HandLine.Batch;
 
 /// <summary>
-/// Expands command-line inputs into source images: image files, folders (recursive, sorted ordinally so
-/// every machine sees the same order) and manifest TSVs. Problems become errors; the rest still loads.
+/// Expands command-line inputs into source images: image files, folders (recursive, each real folder once however
+/// many links lead to it: <see cref="FolderWalk"/>; sorted ordinally by relative path so every machine sees the same
+/// order) and manifest TSVs. Problems become errors; the rest still loads.
 /// </summary>
 public static class InputSet
 {
@@ -21,11 +22,9 @@ public static class InputSet
             if (Directory.Exists(input))
             {
                 var root = Path.GetFullPath(input);
-                var files = Directory.EnumerateFiles(root, "*", SearchOption.AllDirectories)
-                    .Where(f => ImageExtensions.Contains(Path.GetExtension(f)))
-                    .Select(f => Path.GetRelativePath(root, f).Replace('\\', '/'))
-                    .Order(StringComparer.Ordinal);
-                foreach (var rel in files) Add(new SourceImage(rel, Path.Combine(root, rel)));
+                var (files, walkErrors) = FolderWalk.Run(root, name => ImageExtensions.Contains(Path.GetExtension(name)));
+                errors.AddRange(walkErrors);
+                foreach (var rel in files.Order(StringComparer.Ordinal)) Add(new SourceImage(rel, Path.Combine(root, rel)));
             }
             else if (File.Exists(input) && Path.GetExtension(input).Equals(".tsv", StringComparison.OrdinalIgnoreCase))
             {

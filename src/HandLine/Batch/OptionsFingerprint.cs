@@ -1,12 +1,13 @@
 using System.Security.Cryptography;
 using System.Text.Json;
 using HandLine.Decoding;
+using HandLine.Recognition;
 
 namespace HandLine.Batch;
 
 /// <summary>
 /// A short hash of every setting that can change a source's results, so resume reuses a journalled result only
-/// under the same settings: the flag threshold and the decoding options. The model counts by its id (its
+/// under the same settings: the flag threshold, the decoding options and how the rotation is settled (`--rotation`). The model counts by its id (its
 /// content), which also fixes how lines are prepared; the input limits decide whether an image is read at all
 /// but never change what is read from it, so they are not settings of the results.
 /// </summary>
@@ -15,10 +16,11 @@ public static class OptionsFingerprint
     public static string Of(TranscribeOptions options)
     {
         ArgumentNullException.ThrowIfNull(options);
-        var json = JsonSerializer.SerializeToUtf8Bytes(new ResultSettings(options.FlagBelow, options.Decoding));
+        var json = JsonSerializer.SerializeToUtf8Bytes(new ResultSettings(options.FlagBelow, options.Decoding,
+            options.Orientation ?? OrientationOptions.Auto));
         return Convert.ToHexStringLower(SHA256.HashData(json))[..16];
     }
 
     /// <summary>What is hashed; a setting of a run's results added later belongs here.</summary>
-    private sealed record ResultSettings(double FlagBelow, DecodingOptions? Decoding);
+    private sealed record ResultSettings(double FlagBelow, DecodingOptions? Decoding, OrientationOptions Orientation);
 }

@@ -18,6 +18,9 @@ internal sealed class RunReports : IDisposable
         Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping,
     };
 
+    /// <summary>lines.csv's first line.</summary>
+    internal const string CsvHeader = "source,line,text,confidence,flagged,deskew_deg,slant_deg,rotation_deg";
+
     private readonly string _dir;
     private readonly (string Final, string Temp, StreamWriter Writer)[] _files;
 
@@ -30,7 +33,7 @@ internal sealed class RunReports : IDisposable
             var temp = AtomicFile.TempPathFor(final);
             return (final, temp, new StreamWriter(temp, false, new UTF8Encoding(false)) { NewLine = "\n" });
         }).ToArray();
-        Csv.WriteLine("source,line,text,confidence,flagged,deskew_deg,slant_deg");
+        Csv.WriteLine(CsvHeader);
     }
 
     private StreamWriter Jsonl => _files[0].Writer;
@@ -55,6 +58,7 @@ internal sealed class RunReports : IDisposable
                 }).ToArray(),
                 ["deskew_deg"] = Math.Round(r.DeskewDegrees, 2),
                 ["slant_deg"] = Math.Round(r.SlantDegrees, 2),
+                ["rotation_deg"] = r.RotationDegrees,
             };
             if (r.Alternatives.Count > 0)
             {
@@ -70,7 +74,8 @@ internal sealed class RunReports : IDisposable
                 CsvField(r.Source), r.Line.ToString(CultureInfo.InvariantCulture), CsvField(r.Text),
                 Math.Round(r.Confidence, 4).ToString(CultureInfo.InvariantCulture), r.Flagged ? "true" : "false",
                 Math.Round(r.DeskewDegrees, 2).ToString(CultureInfo.InvariantCulture),
-                Math.Round(r.SlantDegrees, 2).ToString(CultureInfo.InvariantCulture)));
+                Math.Round(r.SlantDegrees, 2).ToString(CultureInfo.InvariantCulture),
+                r.RotationDegrees.ToString(CultureInfo.InvariantCulture)));
         }
     }
 

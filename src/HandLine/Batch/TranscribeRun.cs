@@ -12,7 +12,8 @@ public sealed record TranscribeOptions(
     string ModelPath,
     double FlagBelow = TranscribeOptions.DefaultFlagBelow,
     InputLimits? Limits = null,
-    DecodingOptions? Decoding = null)
+    DecodingOptions? Decoding = null,
+    OrientationOptions? Orientation = null)
 {
     /// <summary>Lines whose confidence is below this are flagged for review (see <see cref="Recogniser.DefaultFlagBelow"/>).</summary>
     public const double DefaultFlagBelow = Recogniser.DefaultFlagBelow;
@@ -52,7 +53,7 @@ public static class TranscribeRun
         var started = DateTime.UtcNow;
         Directory.CreateDirectory(options.OutDir);
         using var model = ModelFile.Load(options.ModelPath);
-        var recogniser = new Recogniser(model, options.Limits, options.Decoding, options.FlagBelow);
+        var recogniser = new Recogniser(model, options.Limits, options.Decoding, options.FlagBelow, orientation: options.Orientation);
         var (sources, inputErrors) = InputSet.Expand(inputs);
 
         var job = new BatchJob(options.OutDir, sources, inputErrors, recogniser,

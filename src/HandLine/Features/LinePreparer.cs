@@ -66,7 +66,14 @@ public sealed class LinePreparer
     {
         ArgumentNullException.ThrowIfNull(imageBytes);
         ArgumentNullException.ThrowIfNull(nameForErrors);
-        var page = Load(imageBytes, nameForErrors);
+        return PreparePage(Load(imageBytes, nameForErrors), nameForErrors);
+    }
+
+    /// <summary>Stages 2 to 4 for one loaded image (for instance one turned upright first).</summary>
+    public IReadOnlyList<PreparedLine> PreparePage(GrayImage page, string nameForErrors)
+    {
+        ArgumentNullException.ThrowIfNull(page);
+        ArgumentNullException.ThrowIfNull(nameForErrors);
         // As before this class: a line's normalisation error names "line image", not the file (left for a change of
         // its own, as it changes errors.jsonl).
         var prepared = FindLines(page)

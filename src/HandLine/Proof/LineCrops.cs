@@ -15,13 +15,16 @@ internal static class LineCrops
     /// <summary>
     /// Finds the lines of a page again with the default imaging settings and returns each as PNG, or null when the
     /// page now splits into a different number of lines than the run read (the run may have used other settings),
-    /// so a wrong line is never handed out as the right one.
+    /// so a wrong line is never handed out as the right one. <paramref name="rotation"/> is the run's
+    /// <c>rotation_deg</c> for the image: the page is turned upright first, as the run read it.
     /// </summary>
-    public static byte[][]? TryCutAll(string image, int expectedLines)
+    public static byte[][]? TryCutAll(string image, int expectedLines, int rotation = 0)
     {
+        if (!QuarterTurn.IsRotation(rotation))
+            return null;
         try
         {
-            var regions = Finder.Split(ImageLoader.Load(image, new InputLimits()));
+            var regions = Finder.Split(QuarterTurn.Upright(ImageLoader.Load(image, new InputLimits()), rotation));
             if (regions.Count != expectedLines)
                 return null;
             return regions.Select(r => Png(r.Image)).ToArray();

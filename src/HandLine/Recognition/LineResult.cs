@@ -15,4 +15,7 @@ public sealed record LineResult(
 {
     /// <summary>The beam's best texts with scores, best first; empty for greedy decoding.</summary>
     public IReadOnlyList<Alternative> Alternatives { get; init; } = [];
+
+    /// <summary>How far the image's text was turned clockwise from upright (0, 90, 180 or 270); it was read turned back.</summary>
+    public int RotationDegrees { get; init; }
 }

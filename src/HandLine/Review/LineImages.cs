@@ -33,12 +33,14 @@ internal sealed class LineImages
             return null;
         var extension = Path.GetExtension(path).ToLowerInvariant();
         var lines = _linesPerSource.GetValueOrDefault(record.Source, 1);
+        // A turned image is shown upright, as it was read (a run made before rotation_deg existed has none).
+        var rotation = record.Fields["rotation_deg"] is System.Text.Json.Nodes.JsonValue v && v.TryGetValue<int>(out var r) ? r : 0;
         try
         {
-            if (lines <= 1)
+            if (lines <= 1 && rotation == 0)
                 return new LineImage(File.ReadAllBytes(path), extension, WholePage: false);
             if (_lastPage?.Source != record.Source)
-                _lastPage = (record.Source, LineCrops.TryCutAll(path, lines));
+                _lastPage = (record.Source, LineCrops.TryCutAll(path, lines, rotation));
             return _lastPage.Value.Lines is { } cut && record.Line < cut.Length
                 ? new LineImage(cut[record.Line], ".png", WholePage: false)
                 : new LineImage(File.ReadAllBytes(path), extension, WholePage: true);

@@ -26,7 +26,8 @@ public static class RunCorrector
     public const string CropFolderName = "lines";
 
     private const string Stage = "corrections";
-    private const string CsvHeader = "source,line,text,confidence,flagged,deskew_deg,slant_deg";
+    // A run made before rotation_deg existed keeps its layout.
+    private const string CsvHeaderBeforeRotation = "source,line,text,confidence,flagged,deskew_deg,slant_deg";
     private static readonly UTF8Encoding Utf8 = new(false);
 
     private static readonly JsonSerializerOptions RecordJson = new() { Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping };
@@ -157,16 +158,21 @@ public static class RunCorrector
     {
         if (!File.Exists(path))
             return null;
+        string? header;
         using (var reader = new StreamReader(path))
-            if (reader.ReadLine() != CsvHeader)
-                return null;
-        var text = new StringBuilder(CsvHeader).Append('\n');
+            header = reader.ReadLine();
+        if (header is not (RunReports.CsvHeader or CsvHeaderBeforeRotation))
+            return null;
+        var rotation = header == RunReports.CsvHeader;
+        var text = new StringBuilder(header).Append('\n');
         foreach (var r in records)
         {
             text.Append(RunReports.CsvField(r.Source)).Append(',').Append(r.Line.ToString(CultureInfo.InvariantCulture)).Append(',')
                 .Append(RunReports.CsvField(r.Text)).Append(',').Append(Number(r.Fields["confidence"])).Append(',')
                 .Append(r.Flagged ? "true" : "false").Append(',').Append(Number(r.Fields["deskew_deg"])).Append(',')
-                .Append(Number(r.Fields["slant_deg"])).Append('\n');
+                .Append(Number(r.Fields["slant_deg"]));
+            if (rotation) text.Append(',').Append(Number(r.Fields["rotation_deg"]));
+            text.Append('\n');
         }
         return text.ToString();
     }

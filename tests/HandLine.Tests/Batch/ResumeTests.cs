@@ -1,6 +1,7 @@
 using System.Text.Json;
 using HandLine.Batch;
 using HandLine.Batch.Journal;
+using HandLine.Recognition;
 
 namespace HandLine.Tests.Batch;
 
@@ -130,5 +131,8 @@ public sealed class ResumeTests : IDisposable
         // Another model or another setting: nothing can be reused.
         Assert.Equal(0, TranscribeRun.Run([scans], options with { ModelPath = BatchTestSupport.SmallModel(_dir, seed: 2) }, quiet, null, default).Reused);
         Assert.Equal(0, TranscribeRun.Run([scans], options with { FlagBelow = 0.5 }, quiet, null, default).Reused);
+        var forced = options with { FlagBelow = 0.5, Orientation = new OrientationOptions { Fixed = 0 } };
+        Assert.Equal(0, TranscribeRun.Run([scans], forced, quiet, null, default).Reused);
+        Assert.Equal(4, TranscribeRun.Run([scans], forced, quiet, null, default).Reused);
     }
 }

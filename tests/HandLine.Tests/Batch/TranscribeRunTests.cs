@@ -1,6 +1,8 @@
+using System.Globalization;
 using System.Text.Json;
 using HandLine.Batch;
 using HandLine.Formats;
+using HandLine.Imaging;
 
 namespace HandLine.Tests.Batch;
 
@@ -38,10 +40,14 @@ public sealed class TranscribeRunTests : IDisposable
             var text = l.GetProperty("text").GetString()!;
             Assert.Equal(text, string.Concat(l.GetProperty("chars").EnumerateArray().Select(c => c.GetProperty("char").GetString())));
             Assert.True(l.TryGetProperty("deskew_deg", out _));
+            // An untrained test model: any of the four readings may seem the best to it.
+            Assert.Contains(l.GetProperty("rotation_deg").GetInt32(), QuarterTurn.Rotations);
         }
 
         var csv = File.ReadAllLines(Path.Combine(outDir, "lines.csv"));
-        Assert.Equal("source,line,text,confidence,flagged,deskew_deg,slant_deg", csv[0]);
+        Assert.Equal("source,line,text,confidence,flagged,deskew_deg,slant_deg,rotation_deg", csv[0]);
+        Assert.Equal(lines.Select(l => l.GetProperty("rotation_deg").GetInt32().ToString(CultureInfo.InvariantCulture)),
+            csv.Skip(1).Select(row => row[(row.LastIndexOf(',') + 1)..]));
         Assert.Equal(truth.Count + 1, csv.Length);
 
         using var s = JsonDocument.Parse(File.ReadAllText(Path.Combine(outDir, "summary.json")));
