@@ -108,5 +108,25 @@ public sealed class LineModel : IDisposable
         return result;
     }
 
+    /// <summary>
+    /// Posteriors for many lines, run <paramref name="lanes"/> at a time by <see cref="LaneRunner"/>: a line's
+    /// result is the same bits whichever lines share its batch (for a given lane count and thread count), so
+    /// lines of many images can be batched without changing any report. Agrees with
+    /// <see cref="Run(IReadOnlyList{FeatureSequence})"/> to float rounding.
+    /// </summary>
+    public IReadOnlyList<Posteriors> RunInLanes(IReadOnlyList<FeatureSequence> lines, int lanes)
+    {
+        ArgumentNullException.ThrowIfNull(lines);
+        ArgumentOutOfRangeException.ThrowIfNegativeOrZero(lanes);
+        if (lines.Count == 0) return [];
+        foreach (var l in lines)
+            if (l.Dimension != Features.FrameDimension)
+                throw new ArgumentException($"Feature dimension {l.Dimension} does not match the model's {Features.FrameDimension}.");
+        // Made for each call from the current weights (a few stacked copies, small beside one batch), so a model
+        // trained further in the same process is never read through stale copies.
+        using var runner = new LaneRunner(Network, Header.Network.Hidden, Header.Network.Layers);
+        return runner.Run(lines, lanes);
+    }
+
     public void Dispose() => Network.Dispose();
 }

@@ -6,11 +6,12 @@ using HandLine.Model;
 namespace HandLine.Recognition;
 
 /// <summary>
-/// One image's bytes to its line results, through every stage in order: <see cref="LinePreparer"/> (load, find
-/// lines, normalise, features) → <see cref="LineModel.Run(IReadOnlyList{FeatureSequence})"/> (all lines of the
-/// image as one batch) → <see cref="LineDecoder"/> → <see cref="LineResult"/>. Made once from a model, the input
-/// limits and the decoding options; the model alone fixes how lines are prepared. It reads no files and keeps no
-/// state between images: the batch runner reads, hashes and reports, and calls <see cref="Read"/>.
+/// One image's bytes to its line results, through every stage in order: <see cref="Prepare"/> (load, find lines,
+/// normalise, features: <see cref="LinePreparer"/>) → <see cref="Run"/> (the network, <see cref="LineModel.RunInLanes"/>)
+/// → <see cref="Decode"/> (<see cref="LineDecoder"/> → <see cref="LineResult"/>); <see cref="Read"/> is the three in
+/// a row. Made once from a model, the input limits and the decoding options; the model alone fixes how lines are
+/// prepared. It reads no files and keeps no state between images: the batch runner reads, hashes and reports, and
+/// calls the stages itself (images prepared and decoded in parallel, the network over lines of many images).
 /// </summary>
 public sealed class Recogniser : IImageRecogniser
 {
@@ -21,6 +22,13 @@ public sealed class Recogniser : IImageRecogniser
     /// Re-measure for other models.
     /// </summary>
     public const double DefaultFlagBelow = 0.64;
+
+    /// <summary>
+    /// Lines the network runs side by side (<see cref="LineModel.RunInLanes"/>). A line's low bits depend on it, so
+    /// it is fixed, not a setting: every run, resumed or sharded, computes with the same shapes. See
+    /// docs/measurements.md for the lane counts `handline bench` compared.
+    /// </summary>
+    public const int Lanes = 16;
 
     private readonly double _flagBelow;
 
@@ -57,18 +65,27 @@ public sealed class Recogniser : IImageRecogniser
     {
         ArgumentNullException.ThrowIfNull(imageBytes);
         ArgumentNullException.ThrowIfNull(source);
-        var prepared = Lines.PreparePage(imageBytes, nameForErrors);
+        var prepared = Prepare(imageBytes, nameForErrors);
         return Decode(source, prepared, Run(prepared));
     }
 
-    /// <summary>The network on an image's prepared lines, as one batch.</summary>
-    public IReadOnlyList<Posteriors> Run(IReadOnlyList<PreparedLine> lines)
+    /// <summary>Stages 1 to 4 for one image (see <see cref="LinePreparer.PreparePage"/>); safe to call from several threads.</summary>
+    public IReadOnlyList<PreparedLine> Prepare(byte[] imageBytes, string nameForErrors) => Lines.PreparePage(imageBytes, nameForErrors);
+
+    /// <summary>
+    /// The network on prepared lines of one image or of many, <see cref="Lanes"/> at a time; a line's posteriors
+    /// are the same bits whichever lines come with it.
+    /// </summary>
+    public IReadOnlyList<Posteriors> Run(IReadOnlyList<PreparedLine> lines) => RunInLanes(lines, Lanes);
+
+    /// <summary>The network on prepared lines with another lane count (for measurements: low bits differ from <see cref="Run"/>).</summary>
+    public IReadOnlyList<Posteriors> RunInLanes(IReadOnlyList<PreparedLine> lines, int lanes)
     {
         ArgumentNullException.ThrowIfNull(lines);
-        return Model.Run(lines.Select(p => p.Features).ToArray());
+        return Model.RunInLanes(lines.Select(p => p.Features).ToArray(), lanes);
     }
 
-    /// <summary>Decodes an image's lines and flags the doubtful ones.</summary>
+    /// <summary>Decodes an image's lines and flags the doubtful ones; safe to call from several threads.</summary>
     public IReadOnlyList<LineResult> Decode(string source, IReadOnlyList<PreparedLine> lines, IReadOnlyList<Posteriors> posteriors)
     {
         ArgumentNullException.ThrowIfNull(source);
