@@ -10,7 +10,7 @@ public sealed class UnknownOptionTests : IDisposable
     public void Dispose() => Directory.Delete(_dir, recursive: true);
 
     public static TheoryData<string> Commands() =>
-        ["transcribe", "score", "synth", "train", "merge", "bench-batch", "lm", "words", "calibrate", "bench-decode", "tune-decode", "sample", "review", "correct"];
+        ["transcribe", "score", "synth", "train", "merge", "bench", "bench-batch", "lm", "words", "calibrate", "bench-decode", "tune-decode", "sample", "review", "correct"];
 
     [Theory]
     [MemberData(nameof(Commands))]
