@@ -5,7 +5,6 @@ using System.Text.Json;
 using System.Text.Json.Nodes;
 using HandLine.Batch;
 using HandLine.Decoding;
-using HandLine.Features;
 using HandLine.Model;
 using HandLine.Recognition;
 using static TorchSharp.torch;
@@ -30,8 +29,8 @@ internal static class BenchCommand
         var json = new Option<bool>("--json") { Description = "Print one JSON object instead of the table" };
         var threads = new Option<int>("--threads")
         {
-            Description = "CPU threads for the network and the transcription run (0 = all cores)",
-            DefaultValueFactory = _ => 0,
+            Description = "CPU threads for the network and the transcription run (default: as transcribe, half the cores, at least 1; 0 = all cores)",
+            DefaultValueFactory = _ => BatchCommandOptions.DefaultThreads,
         };
         lines.Validators.Add(r =>
         {
@@ -90,6 +89,22 @@ internal static class BenchCommand
                 if (rate > best.LinesPerSecond) best = (size, rate, posteriors);
             }
 
+            // How the network's speed goes with line width: the lines in three equal groups by frame count.
+            var byWidth = new JsonArray();
+            var sorted = lines.OrderBy(l => l.Features.Frames).ToArray();
+            for (var third = 0; third < 3; third++)
+            {
+                var part = sorted.Skip(third * sorted.Length / 3).Take((third + 1) * sorted.Length / 3 - third * sorted.Length / 3).ToArray();
+                if (part.Length == 0) continue;
+                clock.Restart();
+                recogniser.RunInLanes(part, best.Batch);
+                byWidth.Add(new JsonObject
+                {
+                    ["mean_frames"] = Round(part.Average(l => l.Features.Frames)),
+                    ["lines_per_s"] = Round(part.Length / clock.Elapsed.TotalSeconds),
+                });
+            }
+
             // (c) decoding the best batch's posteriors, greedy and at the default beam.
             var greedy = DecodeRate(new LineDecoder(lineModel.Charset, DecodingOptions.Greedy), best.Posteriors);
             var beam = DecodeRate(new LineDecoder(lineModel.Charset, new DecodingOptions()), best.Posteriors);
@@ -132,6 +147,7 @@ internal static class BenchCommand
                 ["imaging_lines_per_s"] = Round(lines.Length / imagingSeconds),
                 ["model_lines_per_s_by_batch"] = forward,
                 ["model_best_batch"] = best.Batch,
+                ["model_lines_per_s_by_width"] = byWidth,
                 ["model_lines_per_s"] = Round(best.LinesPerSecond),
                 ["greedy_lines_per_s"] = Round(greedy),
                 ["beam_lines_per_s"] = Round(beam),
@@ -227,6 +243,8 @@ internal static class BenchCommand
         w.WriteLine($"  imaging (one thread)          {f["imaging_lines_per_s"],9} lines/s");
         foreach (var (size, rate) in f["model_lines_per_s_by_batch"]!.AsObject())
             w.WriteLine($"  network, batch {size,-3}           {rate,9} lines/s");
+        foreach (var part in f["model_lines_per_s_by_width"]!.AsArray())
+            w.WriteLine($"  network, {part!["mean_frames"],5} frames a line {part["lines_per_s"],9} lines/s (batch {f["model_best_batch"]})");
         w.WriteLine($"  decoding, greedy              {f["greedy_lines_per_s"],9} lines/s");
         w.WriteLine($"  decoding, default beam        {f["beam_lines_per_s"],9} lines/s   decode/network time {f["decode_share"]}");
         w.WriteLine($"  transcribe, end to end        {f["end_to_end_lines_per_s"],9} lines/s   {f["end_to_end_share_of_model"]} of the network's best");

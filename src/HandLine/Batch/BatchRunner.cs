@@ -3,7 +3,6 @@ using System.Runtime.ExceptionServices;
 using System.Security.Cryptography;
 using System.Text;
 using HandLine.Batch.Journal;
-using HandLine.Imaging;
 using HandLine.Recognition;
 
 namespace HandLine.Batch;

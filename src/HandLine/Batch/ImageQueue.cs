@@ -1,7 +1,6 @@
+using System.Security.Cryptography;
 using HandLine.Batch.Journal;
 using HandLine.Imaging;
-using HandLine.Recognition;
-using System.Security.Cryptography;
 
 namespace HandLine.Batch;
 
