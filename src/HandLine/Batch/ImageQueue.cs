@@ -18,6 +18,7 @@ internal sealed class ImageQueue : IDisposable
     private readonly RunJournal _journal;
     private readonly TaskFactory _workers;
     private readonly int _depth;
+    private volatile bool _stopping;
 
     public ImageQueue(BatchJob job, RunJournal journal, IEnumerable<int> indices, int depth, int workers)
     {
@@ -52,6 +53,7 @@ internal sealed class ImageQueue : IDisposable
     private PendingImage Prepare(int index)
     {
         var pending = new PendingImage(index, _job.Sources[index]);
+        if (_stopping) return pending; // the run stopped: nobody will take this source
         try
         {
             var bytes = ImageLoader.ReadFile(pending.Source.FullPath, _job.Recogniser.Limits);
@@ -74,9 +76,13 @@ internal sealed class ImageQueue : IDisposable
         return pending;
     }
 
-    /// <summary>Waits for the sources still in flight (after a cancellation), so no worker outlives the run.</summary>
+    /// <summary>
+    /// After a stop: sources not started are skipped, and the ones being prepared are waited for, so no worker
+    /// outlives the run.
+    /// </summary>
     public void Dispose()
     {
+        _stopping = true;
         while (_ahead.Count > 0) _ahead.Dequeue().Wait();
         _next.Dispose();
     }
