@@ -23,7 +23,7 @@ internal static class BatchRunner
 
     /// <summary>
     /// Lines gathered for one network call: two groups of <see cref="Recogniser.Lanes"/>, so one group's shorter
-    /// lines do not wait for the longest. Common practice, no source; measured in docs/measurements.md.
+    /// lines do not wait for the longest (a rule of thumb: common practice, no source).
     /// </summary>
     private const int WindowLines = 2 * Recogniser.Lanes;
 
