@@ -16,8 +16,17 @@ internal sealed class BatchCommandOptions
 
     private readonly Option<int> _threads = new("--threads")
     {
-        Description = "CPU threads for the network (0 = all cores); 1 is best when other jobs share the machine",
+        Description = "CPU threads for the network (default: half the cores, at least 1, as images are prepared and decoded on the others; 0 = all cores)",
+        DefaultValueFactory = _ => DefaultThreads,
     };
+
+    /// <summary>
+    /// The network's threads unless told: half the cores, at least one, since the run prepares and decodes
+    /// images on worker threads meanwhile. On the 2-core development machine under load, libtorch on 2 threads
+    /// took 84 s for what 1 thread did in 19 s (docs/measurements.md): its threads wait for each other when
+    /// other work holds a core.
+    /// </summary>
+    public static int DefaultThreads => Math.Max(1, Environment.ProcessorCount / 2);
 
     private readonly Option<bool> _quiet = new("--quiet")
     {

@@ -20,6 +20,7 @@ internal static class CommandTree
             SynthCommand.Create(),
             TrainCommand.Create(),
             MergeCommand.Create(),
+            BenchCommand.Create(),
             BenchBatchCommand.Create(),
             LmCommand.Create(),
             WordsCommand.Create(),

@@ -296,15 +296,20 @@ public sealed class BeamDecoder
         /// <summary>Language model log probabilities after a context, indexed by model class; index 0 holds end of line.</summary>
         private double[] LmRow(ulong state)
         {
-            if (owner._lmCache.TryGetValue(state, out var row)) return row;
+            // The cache is shared by every line this decoder reads, and the batch runner decodes images in parallel.
+            lock (owner._lmCache)
+                if (owner._lmCache.TryGetValue(state, out var cached)) return cached;
             var lm = owner._options.LanguageModel!;
             Span<double> byId = stackalloc double[lm.IdLimit];
             lm.LogDistribution(state, byId);
-            row = new double[_classes];
+            var row = new double[_classes];
             row[0] = byId[CharNgramModel.EndId];
             for (var c = 1; c < _classes; c++) row[c] = byId[owner._lmIdOfClass![c]];
-            if (owner._lmCache.Count >= CacheLimit) owner._lmCache.Clear();
-            owner._lmCache[state] = row;
+            lock (owner._lmCache)
+            {
+                if (owner._lmCache.Count >= CacheLimit) owner._lmCache.Clear();
+                owner._lmCache[state] = row;
+            }
             return row;
         }
 

@@ -81,7 +81,7 @@ public sealed class LineModel : IDisposable
             Training = training ?? Header.Training,
             ValidationCer = validationCer,
             CreatedUtc = DateTime.UtcNow.ToString("O"),
-            Temperature = 1.0,
+            Temperature = null,
             TemperatureFit = null,
         }, Network);
 
@@ -95,7 +95,7 @@ public sealed class LineModel : IDisposable
     }
 
     /// <summary>The temperature the outputs are divided by (see <see cref="Posteriors.Tempered"/>).</summary>
-    public double Temperature => Header.Temperature;
+    public double Temperature => Header.Temperature ?? 1.0;
 
     /// <summary>Posteriors for one line.</summary>
     public Posteriors Run(FeatureSequence line) => Run([line])[0];
@@ -120,9 +120,30 @@ public sealed class LineModel : IDisposable
         {
             var t = lines[b].Frames;
             var data = logProbs[..t, b, ..].contiguous().data<float>().ToArray();
-            result[b] = new Posteriors(t, classes, data).Tempered(Header.Temperature);
+            result[b] = new Posteriors(t, classes, data).Tempered(Temperature);
         }
         return result;
+    }
+
+    /// <summary>
+    /// Posteriors for many lines, run <paramref name="lanes"/> at a time by <see cref="LaneRunner"/>: a line's
+    /// result is the same bits whichever lines share its batch (for a given lane count and thread count), so
+    /// lines of many images can be batched without changing any report. Agrees with
+    /// <see cref="Run(IReadOnlyList{FeatureSequence})"/> to float rounding.
+    /// </summary>
+    public IReadOnlyList<Posteriors> RunInLanes(IReadOnlyList<FeatureSequence> lines, int lanes)
+    {
+        ArgumentNullException.ThrowIfNull(lines);
+        ArgumentOutOfRangeException.ThrowIfNegativeOrZero(lanes);
+        if (lines.Count == 0) return [];
+        foreach (var l in lines)
+            if (l.Dimension != Features.FrameDimension)
+                throw new ArgumentException($"Feature dimension {l.Dimension} does not match the model's {Features.FrameDimension}.");
+        // Made for each call from the current weights (a few stacked copies, small beside one batch), so a model
+        // trained further in the same process is never read through stale copies.
+        using var runner = new LaneRunner(Network, Header.Network.Hidden, Header.Network.Layers);
+        var result = runner.Run(lines, lanes);
+        return Temperature == 1.0 ? result : result.Select(p => p.Tempered(Temperature)).ToArray();
     }
 
     public void Dispose() => Network.Dispose();

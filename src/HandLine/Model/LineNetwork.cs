@@ -33,6 +33,9 @@ public sealed class LineNetwork : nn.Module<Tensor, Tensor, Tensor>
         RegisterComponents();
     }
 
+    /// <summary>The convolutional front end, if the network has one (for <see cref="LaneRunner"/>).</summary>
+    internal ColumnConvolution? Front => front;
+
     /// <param name="frames">[T, B, D] padded frames.</param>
     /// <param name="lengths">[B] int64 frame counts, on the CPU.</param>
     public override Tensor forward(Tensor frames, Tensor lengths)

@@ -83,7 +83,7 @@ public static class ModelFile
         {
             header.Features.Validate();
             header.Network.Validate(header.Features);
-            if (!(header.Temperature > 0) || double.IsInfinity(header.Temperature))
+            if (header.Temperature is { } t && (!(t > 0) || double.IsInfinity(t)))
                 throw new ArgumentException($"temperature {header.Temperature} is not a positive finite number");
             charset = CharacterSet.FromString(header.Charset);
         }

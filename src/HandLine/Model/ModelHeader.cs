@@ -26,7 +26,8 @@ public sealed record TemperatureRecord(
 
 /// <summary>
 /// The JSON header of a model file. <see cref="Temperature"/> divides the network's outputs before decoding
-/// (1 = as trained; files written before it existed read as 1); training resets it, as new weights need a new fit.
+/// (absent = 1, as trained; left out of the file then, so older files are written again byte for byte); training
+/// resets it, as new weights need a new fit.
 /// </summary>
 public sealed record ModelHeader(
     [property: JsonPropertyName("format_version")] int FormatVersion,
@@ -37,8 +38,8 @@ public sealed record ModelHeader(
     [property: JsonPropertyName("validation_cer")] double? ValidationCer,
     [property: JsonPropertyName("created_utc")] string CreatedUtc,
     [property: JsonPropertyName("weights_sha256")] string WeightsSha256 = "",
-    [property: JsonPropertyName("temperature")] double Temperature = 1.0,
-    [property: JsonPropertyName("temperature_fit")] TemperatureRecord? TemperatureFit = null)
+    [property: JsonPropertyName("temperature"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] double? Temperature = null,
+    [property: JsonPropertyName("temperature_fit"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] TemperatureRecord? TemperatureFit = null)
 {
     public const int CurrentFormatVersion = 1;
 }

@@ -6,11 +6,13 @@ using HandLine.Model;
 namespace HandLine.Recognition;
 
 /// <summary>
-/// One image's bytes to its line results, through every stage in order: load, turn upright
-/// (<see cref="OrientationOptions"/>), <see cref="LinePreparer"/> (find lines, normalise, features) → <see cref="LineModel.Run(IReadOnlyList{FeatureSequence})"/> (all lines of the
-/// image as one batch) → <see cref="LineDecoder"/> → <see cref="LineResult"/>. Made once from a model, the input
-/// limits and the decoding options; the model alone fixes how lines are prepared. It reads no files and keeps no
-/// state between images: the batch runner reads, hashes and reports, and calls <see cref="Read"/>.
+/// One image's bytes to its line results, through every stage in order: <see cref="Prepare"/> (load, turn upright as
+/// the ink suggests (<see cref="OrientationOptions"/>), find lines, normalise, features: <see cref="LinePreparer"/>) →
+/// <see cref="Run"/> (the network, <see cref="LineModel.RunInLanes"/>) → <see cref="Decode"/> (<see cref="LineDecoder"/>
+/// → <see cref="LineResult"/>) → <see cref="Settle"/> (an unsure reading compared with the image's other way up);
+/// <see cref="Read"/> is the four in a row. Made once from a model, the input limits and the decoding options; the model alone fixes how lines are
+/// prepared. It reads no files and keeps no state between images: the batch runner reads, hashes and reports, and
+/// calls the stages itself (images prepared and decoded in parallel, the network over lines of many images).
 /// </summary>
 public sealed class Recogniser : IImageRecogniser
 {
@@ -21,6 +23,13 @@ public sealed class Recogniser : IImageRecogniser
     /// Re-measure for other models.
     /// </summary>
     public const double DefaultFlagBelow = 0.64;
+
+    /// <summary>
+    /// Lines the network runs side by side (<see cref="LineModel.RunInLanes"/>). A line's low bits depend on it, so
+    /// it is fixed, not a setting: every run, resumed or sharded, computes with the same shapes. See
+    /// docs/measurements.md for the lane counts `handline bench` compared.
+    /// </summary>
+    public const int Lanes = 16;
 
     private readonly double _flagBelow;
 
@@ -62,36 +71,27 @@ public sealed class Recogniser : IImageRecogniser
     {
         ArgumentNullException.ThrowIfNull(imageBytes);
         ArgumentNullException.ThrowIfNull(source);
-        ArgumentNullException.ThrowIfNull(nameForErrors);
-        var page = Lines.Load(imageBytes, nameForErrors);
-        if (Orientation.Fixed is { } fixedRotation)
-            return ReadAt(page, fixedRotation, source, nameForErrors).Results;
-        return Upright(page, source, nameForErrors);
+        var prepared = Prepare(imageBytes, nameForErrors);
+        return Settle(imageBytes, source, nameForErrors, Decode(source, prepared, Run(prepared)));
     }
 
     /// <summary>
-    /// The rotation detected as <see cref="OrientationOptions"/> describes: the readings left by the ink cue, in
-    /// turn, the first kept at once when confident enough, otherwise the most confident (the first with its margin).
+    /// Stages 1 to 4 for one image (see <see cref="LinePreparer.PreparePage"/>), turned to the fixed rotation or to
+    /// the ink cue's first candidate; safe to call from several threads.
     /// </summary>
-    private IReadOnlyList<LineResult> Upright(GrayImage page, string source, string nameForErrors)
+    public IReadOnlyList<PreparedLine> Prepare(byte[] imageBytes, string nameForErrors)
     {
-        // No ink: read it upright, which reports the blank image as it always has.
-        if (OrientationEstimator.Guess(page, Lines.Tuning) is not { } guess)
-            return ReadAt(page, 0, source, nameForErrors).Results;
-        int[] candidates = guess.AxisMargin >= Orientation.SureAxisMargin ? [0, 180]
-            : guess.AxisMargin <= -Orientation.SureAxisMargin ? [90, 270]
-            : guess.AxisMargin >= 0 ? [0, 180, 90, 270] : [90, 270, 0, 180];
-        (IReadOnlyList<LineResult> Results, double Score)? best = null;
+        ArgumentNullException.ThrowIfNull(imageBytes);
+        ArgumentNullException.ThrowIfNull(nameForErrors);
+        var page = Lines.Load(imageBytes, nameForErrors);
+        if (Orientation.Fixed is { } fixedRotation) return PrepareAt(page, fixedRotation, nameForErrors);
+        var candidates = Candidates(page);
         InputException? firstProblem = null;
         foreach (var rotation in candidates)
         {
             try
             {
-                var reading = ReadAt(page, rotation, source, nameForErrors);
-                if (rotation == candidates[0] && reading.Score >= Orientation.CheckBelow) return reading.Results;
-                // The first reading competes with its margin added.
-                if (rotation == candidates[0]) reading = (reading.Results, reading.Score + Orientation.PreferFirstBy);
-                if (best is null || reading.Score > best.Value.Score) best = reading;
+                return PrepareAt(page, rotation, nameForErrors);
             }
             catch (InputException e)
             {
@@ -99,26 +99,79 @@ public sealed class Recogniser : IImageRecogniser
                 firstProblem ??= e;
             }
         }
-        return best?.Results ?? throw firstProblem!;
+        throw firstProblem!;
     }
 
-    /// <summary>The image read as turned <paramref name="rotation"/>°, and the model's mean confidence over its characters.</summary>
-    private (IReadOnlyList<LineResult> Results, double Score) ReadAt(GrayImage page, int rotation, string source, string nameForErrors)
+    /// <summary>
+    /// With rotation detection on: an image whose first reading is not confident enough is read the other ways the
+    /// ink cue left open, and the most confident reading is kept (the first with its margin). Reads the network, so
+    /// one thread at a time, like <see cref="Run"/>. Returns <paramref name="first"/> when nothing needs comparing.
+    /// </summary>
+    public IReadOnlyList<LineResult> Settle(byte[] imageBytes, string source, string nameForErrors, IReadOnlyList<LineResult> first)
     {
-        var prepared = Lines.PreparePage(QuarterTurn.Upright(page, rotation), nameForErrors);
-        var results = Decode(source, prepared, Run(prepared)).Select(r => r with { RotationDegrees = rotation }).ToArray();
-        var chars = results.SelectMany(r => r.Chars).ToArray();
-        return (results, chars.Length == 0 ? 0 : chars.Average(c => c.Confidence));
+        ArgumentNullException.ThrowIfNull(imageBytes);
+        ArgumentNullException.ThrowIfNull(first);
+        if (Orientation.Fixed is not null || first.Count == 0) return first;
+        var firstScore = Score(first);
+        if (firstScore >= Orientation.CheckBelow) return first;
+        var page = Lines.Load(imageBytes, nameForErrors);
+        var firstRotation = first[0].RotationDegrees;
+        // The first reading competes with its margin added.
+        var best = (Results: first, Score: firstScore + Orientation.PreferFirstBy);
+        foreach (var rotation in Candidates(page).Where(r => r != firstRotation))
+        {
+            try
+            {
+                var prepared = PrepareAt(page, rotation, nameForErrors);
+                var results = Decode(source, prepared, Run(prepared));
+                var score = Score(results);
+                if (score > best.Score) best = (results, score);
+            }
+            catch (InputException)
+            {
+                // This way up does not even give lines within the limits: the reading already made stands.
+            }
+        }
+        return best.Results;
     }
 
-    /// <summary>The network on an image's prepared lines, as one batch.</summary>
-    public IReadOnlyList<Posteriors> Run(IReadOnlyList<PreparedLine> lines)
+    /// <summary>
+    /// The rotations worth reading, in order: the ink cue's axis first (<see cref="OrientationEstimator"/>), both of
+    /// its readings; all four when the cue is unsure; upright only when there is no ink (the blank image is then
+    /// reported as it always has been).
+    /// </summary>
+    private int[] Candidates(GrayImage page)
+    {
+        if (OrientationEstimator.Guess(page, Lines.Tuning) is not { } guess) return [0];
+        return guess.AxisMargin >= Orientation.SureAxisMargin ? [0, 180]
+            : guess.AxisMargin <= -Orientation.SureAxisMargin ? [90, 270]
+            : guess.AxisMargin >= 0 ? [0, 180, 90, 270] : [90, 270, 0, 180];
+    }
+
+    private IReadOnlyList<PreparedLine> PrepareAt(GrayImage page, int rotation, string nameForErrors) =>
+        Lines.PreparePage(QuarterTurn.Upright(page, rotation), nameForErrors).Select(p => p with { RotationDegrees = rotation }).ToArray();
+
+    /// <summary>The model's mean confidence over a reading's characters.</summary>
+    private static double Score(IReadOnlyList<LineResult> results)
+    {
+        var chars = results.SelectMany(r => r.Chars).ToArray();
+        return chars.Length == 0 ? 0 : chars.Average(c => c.Confidence);
+    }
+
+    /// <summary>
+    /// The network on prepared lines of one image or of many, <see cref="Lanes"/> at a time; a line's posteriors
+    /// are the same bits whichever lines come with it.
+    /// </summary>
+    public IReadOnlyList<Posteriors> Run(IReadOnlyList<PreparedLine> lines) => RunInLanes(lines, Lanes);
+
+    /// <summary>The network on prepared lines with another lane count (for measurements: low bits differ from <see cref="Run"/>).</summary>
+    public IReadOnlyList<Posteriors> RunInLanes(IReadOnlyList<PreparedLine> lines, int lanes)
     {
         ArgumentNullException.ThrowIfNull(lines);
-        return Model.Run(lines.Select(p => p.Features).ToArray());
+        return Model.RunInLanes(lines.Select(p => p.Features).ToArray(), lanes);
     }
 
-    /// <summary>Decodes an image's lines and flags the doubtful ones.</summary>
+    /// <summary>Decodes an image's lines and flags the doubtful ones; safe to call from several threads.</summary>
     public IReadOnlyList<LineResult> Decode(string source, IReadOnlyList<PreparedLine> lines, IReadOnlyList<Posteriors> posteriors)
     {
         ArgumentNullException.ThrowIfNull(source);
@@ -131,7 +184,7 @@ public sealed class Recogniser : IImageRecogniser
             var h = Decoder.Decode(posteriors[i]);
             results[i] = new LineResult(source, i, h.Text, h.Confidence, h.Confidence < _flagBelow, h.Chars,
                 lines[i].Line.DeskewDegrees, lines[i].Line.SlantDegrees)
-            { Alternatives = h.Alternatives };
+            { Alternatives = h.Alternatives, RotationDegrees = lines[i].RotationDegrees };
         }
         return results;
     }

@@ -213,8 +213,18 @@ public sealed class BadInputTests : IDisposable
         public global::HandLine.Imaging.InputLimits Limits => global::HandLine.Imaging.InputLimits.Default;
 
         public IReadOnlyList<LineResult> Read(byte[] imageBytes, string source, string nameForErrors) =>
+            Decode(source, [], []);
+
+        public IReadOnlyList<global::HandLine.Features.PreparedLine> Prepare(byte[] imageBytes, string nameForErrors) => [];
+
+        public IReadOnlyList<global::HandLine.Model.Posteriors> Run(IReadOnlyList<global::HandLine.Features.PreparedLine> lines) => [];
+
+        public IReadOnlyList<LineResult> Decode(string source, IReadOnlyList<global::HandLine.Features.PreparedLine> lines,
+            IReadOnlyList<global::HandLine.Model.Posteriors> posteriors) =>
             source == failing
                 ? throw new InvalidOperationException("simulated fault in a later stage")
                 : [new LineResult(source, 0, "Folio 23", 0.9, false, [], 0, 0)];
+
+        public IReadOnlyList<LineResult> Settle(byte[] imageBytes, string source, string nameForErrors, IReadOnlyList<LineResult> first) => first;
     }
 }

@@ -50,6 +50,38 @@ public sealed class ResumeTests : IDisposable
     }
 
     [Fact]
+    public void StoppedInsideANetworkBatchThenResumedEqualsAnUninterruptedRun()
+    {
+        // Enough images for several network windows (32 lines each); each stop lands inside one, so the
+        // resumed run puts the rest of that window's images with other companions than the whole run did.
+        const int images = 90;
+        var scans = BatchTestSupport.DemoCopies(_dir, images);
+        var model = BatchTestSupport.SmallModel(_dir);
+        var reference = Path.Combine(_dir, "reference");
+        using (var whole = BatchTestSupport.Start(Transcribe(scans, reference, model)))
+            Assert.Equal(0, whole.WaitForExit().Code);
+
+        var outDir = Path.Combine(_dir, "resumed");
+        foreach (var (records, signal) in new[] { (5, 2), (45, 9) }) // Ctrl+C, then a kill
+        {
+            using var run = BatchTestSupport.Start(Transcribe(scans, outDir, model));
+            var deadline = DateTime.UtcNow.AddSeconds(60);
+            while (!run.HasExited && BatchTestSupport.JournalLines(outDir) < records && DateTime.UtcNow < deadline)
+                Thread.Sleep(2);
+            run.Signal(signal);
+            run.WaitForExit();
+        }
+        using (var last = BatchTestSupport.Start(Transcribe(scans, outDir, model)))
+        {
+            var (code, _, err) = last.WaitForExit();
+            Assert.True(code == 0, err);
+        }
+
+        Assert.Equal(BatchTestSupport.Snapshot(reference), BatchTestSupport.Snapshot(outDir));
+        Assert.Equal(images + 1, BatchTestSupport.JournalLines(outDir));
+    }
+
+    [Fact]
     public void CtrlCFinishesTheCurrentImageWritesAConsistentSummaryAndExits130()
     {
         // Many more images than the run reads before the signal lands, so a loaded machine that delays the

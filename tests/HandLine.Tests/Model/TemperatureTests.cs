@@ -62,6 +62,9 @@ public sealed class TemperatureTests : IDisposable
         var expected = plain.Tempered(2.5).LogProbs;
         var got = loaded.Run(input).LogProbs;
         for (var i = 0; i < expected.Length; i++) Assert.Equal(expected[i], got[i], 4);
+        // The batched inference path that transcribe uses applies it too.
+        var expectedLanes = model.RunInLanes([input], 16)[0].Tempered(2.5).LogProbs;
+        Assert.Equal(expectedLanes, loaded.RunInLanes([input], 16)[0].LogProbs);
 
         // New weights need a new fit: a save after training writes temperature 1 and no fit record.
         var trained = Path.Combine(_dir, "trained.hlm");

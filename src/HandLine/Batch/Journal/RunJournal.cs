@@ -56,6 +56,12 @@ internal sealed class RunJournal : IDisposable
         }
     }
 
+    /// <summary>
+    /// Whether a record was indexed under this key when the journal was opened (it may still fail its check when
+    /// read). The index does not change after opening, so this is safe from other threads, unlike <see cref="TryGet"/>.
+    /// </summary>
+    public bool Holds(string reuseKey) => _reusable.ContainsKey(reuseKey);
+
     /// <summary>The stored record for this key, with its bytes as stored; false when there is none or it no longer checks.</summary>
     public bool TryGet(string reuseKey, out JournalEntry entry)
     {
