@@ -194,7 +194,7 @@ public static class PageRenderer
             }
         }
         // Rules: thin and light; the horizontal ones across the page, the vertical ones down the ruled part.
-        var ruleDark = 0.25 + 0.3 * rng.NextDouble();
+        var ruleDark = 0.2 + 0.25 * rng.NextDouble();
         var thickness = 1 + rng.Next(3);
         foreach (var y in rows)
             HorizontalRule(p, w, h, y, 0.02 * w, 0.98 * w, thickness, ruleDark);

@@ -1,6 +1,8 @@
 using System.Security.Cryptography;
 using System.Text.Json;
+using System.Text.Json.Serialization;
 using HandLine.Decoding;
+using HandLine.Layout;
 
 namespace HandLine.Batch;
 
@@ -15,10 +17,13 @@ public static class OptionsFingerprint
     public static string Of(TranscribeOptions options)
     {
         ArgumentNullException.ThrowIfNull(options);
-        var json = JsonSerializer.SerializeToUtf8Bytes(new ResultSettings(options.FlagBelow, options.Decoding));
+        // Auto layout adds nothing, so runs made before layouts existed keep their hash and resume.
+        var json = JsonSerializer.SerializeToUtf8Bytes(new ResultSettings(options.FlagBelow, options.Decoding,
+            options.Layout == LayoutMode.Auto ? null : options.Layout.ToString()));
         return Convert.ToHexStringLower(SHA256.HashData(json))[..16];
     }
 
     /// <summary>What is hashed; a setting of a run's results added later belongs here.</summary>
-    private sealed record ResultSettings(double FlagBelow, DecodingOptions? Decoding);
+    private sealed record ResultSettings(double FlagBelow, DecodingOptions? Decoding,
+        [property: JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] string? Layout);
 }

@@ -1,4 +1,5 @@
 using HandLine.Imaging;
+using HandLine.Layout;
 
 namespace HandLine.Features;
 
@@ -14,6 +15,7 @@ public sealed class LinePreparer
 {
     private readonly LineFinder _finder;
     private readonly LineNormaliser _normaliser;
+    private readonly PageAnalyser _pages = new();
 
     /// <param name="features">What the model fixes: line height, slant correction, binarisation, features.</param>
     /// <param name="tuning">The imaging stage's tuning values; null for the defaults.</param>
@@ -66,7 +68,38 @@ public sealed class LinePreparer
     {
         ArgumentNullException.ThrowIfNull(imageBytes);
         ArgumentNullException.ThrowIfNull(nameForErrors);
-        var page = Load(imageBytes, nameForErrors);
+        return PrepareLines(Load(imageBytes, nameForErrors), nameForErrors);
+    }
+
+    /// <summary>
+    /// Stages 1 to 4 for one image taken as <paramref name="layout"/> says (auto: <see cref="PageAnalyser.LooksLikePage"/>):
+    /// as lines, the lines of <see cref="PreparePage"/> and no page lines; as a page, the lines the page stage
+    /// (<see cref="PageAnalyser.Analyse"/>) finds, in reading order, each beside its page line (box, column, entry).
+    /// </summary>
+    public (IReadOnlyList<PreparedLine> Lines, IReadOnlyList<PageLine>? PageLines) PrepareImage(byte[] imageBytes, string nameForErrors, LayoutMode layout)
+    {
+        ArgumentNullException.ThrowIfNull(imageBytes);
+        ArgumentNullException.ThrowIfNull(nameForErrors);
+        var image = Load(imageBytes, nameForErrors);
+        if (layout == LayoutMode.Line || (layout == LayoutMode.Auto && !_pages.LooksLikePage(image)))
+            return (PrepareLines(image, nameForErrors), null);
+        var found = _pages.Analyse(image).Lines;
+        var lines = new List<PreparedLine>(found.Count);
+        var kept = new List<PageLine>(found.Count);
+        foreach (var line in found)
+        {
+            var prepared = Prepare(line.Image, nameForErrors);
+            if (!prepared.Line.HasInk) continue;
+            lines.Add(prepared);
+            kept.Add(line);
+        }
+        if (lines.Count == 0)
+            throw new InputException(nameForErrors, "segment", "no lines found: the page looks blank");
+        return (lines, kept);
+    }
+
+    private PreparedLine[] PrepareLines(GrayImage page, string nameForErrors)
+    {
         // As before this class: a line's normalisation error names "line image", not the file (left for a change of
         // its own, as it changes errors.jsonl).
         var prepared = FindLines(page)

@@ -15,4 +15,16 @@ public sealed record LineResult(
 {
     /// <summary>The beam's best texts with scores, best first; empty for greedy decoding.</summary>
     public IReadOnlyList<Alternative> Alternatives { get; init; } = [];
+
+    /// <summary>How the image was taken: "line" (a line image or a strip of lines) or "page" (a whole page).</summary>
+    public string? Layout { get; init; }
+
+    /// <summary>Page lines: the line's box [x, y, w, h] in the page's pixels.</summary>
+    public int[]? Box { get; init; }
+
+    /// <summary>Page lines: the column the line stands in (0 = left of the first column divider).</summary>
+    public int? Column { get; init; }
+
+    /// <summary>Page lines: the entry (ruled row) the line belongs to, counted from 0 down the page.</summary>
+    public int? Entry { get; init; }
 }

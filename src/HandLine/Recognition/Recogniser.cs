@@ -1,6 +1,7 @@
 using HandLine.Decoding;
 using HandLine.Features;
 using HandLine.Imaging;
+using HandLine.Layout;
 using HandLine.Model;
 
 namespace HandLine.Recognition;
@@ -50,6 +51,9 @@ public sealed class Recogniser : IImageRecogniser
 
     public InputLimits Limits => Lines.Limits;
 
+    /// <summary>How images are taken: as lines, as whole pages, or decided per image (the default).</summary>
+    public LayoutMode Layout { get; init; } = LayoutMode.Auto;
+
     /// <summary>The one entry point: an image file's bytes to the results of its lines, top to bottom.</summary>
     /// <param name="source">The source's name in the reports.</param>
     /// <param name="nameForErrors">Named in any <see cref="InputException"/> (normally the file's path).</param>
@@ -57,8 +61,14 @@ public sealed class Recogniser : IImageRecogniser
     {
         ArgumentNullException.ThrowIfNull(imageBytes);
         ArgumentNullException.ThrowIfNull(source);
-        var prepared = Lines.PreparePage(imageBytes, nameForErrors);
-        return Decode(source, prepared, Run(prepared));
+        var (prepared, page) = Lines.PrepareImage(imageBytes, nameForErrors, Layout);
+        var results = Decode(source, prepared, Run(prepared));
+        return page is null
+            ? results.Select(r => r with { Layout = "line" }).ToArray()
+            : results.Select((r, i) => r with
+            {
+                Layout = "page", Box = page[i].Box.ToArray(), Column = page[i].Column, Entry = page[i].Entry,
+            }).ToArray();
     }
 
     /// <summary>The network on an image's prepared lines, as one batch.</summary>
