@@ -2,7 +2,6 @@ using System.Globalization;
 using System.Text;
 using System.Text.Json;
 using System.Xml;
-using HandLine.Scoring;
 using SixLabors.ImageSharp;
 
 namespace HandLine.Batch;
@@ -180,7 +179,7 @@ public static class AltoWriter
     private static Dictionary<string, List<AltoLine>> ReadPageLines(string outDir)
     {
         var result = new Dictionary<string, List<AltoLine>>(StringComparer.Ordinal);
-        var bytes = RunReader.ReadLinesFile(outDir, out _);
+        var bytes = File.ReadAllBytes(Path.Combine(outDir, "lines.jsonl"));
         foreach (var raw in Encoding.UTF8.GetString(bytes).Split('\n'))
         {
             if (raw.Trim().Length == 0) continue;
