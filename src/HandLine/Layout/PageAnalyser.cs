@@ -19,7 +19,7 @@ public sealed class PageAnalyser
     private readonly PageOptions _options;
 
     // Common practice, no source: ink less than this darker than the paper (on a 0..1 scale) is no writing.
-    private const float MinContrast = 0.15f;
+    private const float MinContrast = 0.1f;
 
     /// <exception cref="ArgumentException">An option is out of range.</exception>
     public PageAnalyser(PageOptions? options = null)

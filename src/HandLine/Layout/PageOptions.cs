@@ -29,7 +29,7 @@ public sealed record PageOptions
     public double ColumnRuleFraction { get; init; } = 0.25;
 
     /// <summary>A clear vertical strip at least this many text heights wide, with writing on both sides, divides columns too.</summary>
-    public double ColumnGapHeights { get; init; } = 5;
+    public double ColumnGapHeights { get; init; } = 2.5;
 
     /// <summary>Within a row and column, writing further apart than this many text heights is two lines.</summary>
     public double PartGapHeights { get; init; } = 4;
