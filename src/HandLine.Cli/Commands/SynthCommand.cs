@@ -41,16 +41,24 @@ internal static class SynthCommand
         {
             Description = "--pages: page size in pixels, WIDTHxHEIGHT (the writing size follows the width)", DefaultValueFactory = _ => "1600x2200",
         };
+        var wear = new Option<double>("--wear")
+        {
+            Description = "--pages: strength of stains, uneven light and blur (0..2; --clean is 0)", DefaultValueFactory = _ => 1,
+        };
+        var grain = new Option<double>("--grain")
+        {
+            Description = "--pages: strength of the paper's grain and pixel noise (0..2; --clean is 0; makes PNGs large)", DefaultValueFactory = _ => 1,
+        };
         var command = new Command("synth", "Render synthetic handwriting-style text lines (or ruled pages) for training and testing")
         {
-            fonts, count, outDir, text, words, seed, clean, mnist, split, pages, pageSize,
+            fonts, count, outDir, text, words, seed, clean, mnist, split, pages, pageSize, wear, grain,
         };
         command.SetAction(parse => CommandRunner.Guard(() =>
         {
             if (parse.GetValue(count) < 1) throw new ArgumentException("--count must be at least 1");
             if (parse.GetValue(pages))
                 return Pages(parse.GetValue(fonts)!, parse.GetValue(count), parse.GetValue(outDir)!, parse.GetValue(seed),
-                    parse.GetValue(pageSize)!, parse.GetValue(clean), parse.GetValue(text) is not null || parse.GetValue(words) is not null || parse.GetValue(mnist) is not null);
+                    parse.GetValue(pageSize)!, parse.GetValue(clean) ? 0 : parse.GetValue(wear), parse.GetValue(clean) ? 0 : parse.GetValue(grain), parse.GetValue(text) is not null || parse.GetValue(words) is not null || parse.GetValue(mnist) is not null);
             var wordsPath = parse.GetValue(words);
             if (wordsPath is not null && (parse.GetValue(text) is not null || parse.GetValue(mnist) is not null))
                 throw new ArgumentException("--words cannot be combined with --text or --mnist, which bring their own text");
@@ -92,7 +100,7 @@ internal static class SynthCommand
         return command;
     }
 
-    private static int Pages(string[] fontPaths, int count, string outDir, int seed, string size, bool clean, bool otherText)
+    private static int Pages(string[] fontPaths, int count, string outDir, int seed, string size, double wear, double grain, bool otherText)
     {
         if (otherText)
             throw new ArgumentException("--pages draws the estate's ledger and register text: it cannot be combined with --text, --words or --mnist");
@@ -102,7 +110,7 @@ internal static class SynthCommand
             throw new ArgumentException($"--page-size must be WIDTHxHEIGHT in pixels, e.g. 1600x2200 (got '{size}')");
         var options = new PageSynthesisOptions
         {
-            Width = w, Height = h, Wear = clean ? 0 : 1,
+            Width = w, Height = h, Wear = wear, Grain = grain,
             // 30-40 px on a 1600 px page, in proportion on others.
             FontSizePx = new Interval(Math.Max(14, 0.019 * w), Math.Max(18, 0.025 * w)),
         };

@@ -54,7 +54,7 @@ public static class PageRenderer
             entry++;
         }
 
-        var paper = Paper(w, h, rng, options.Wear, rows, rules, firstRule - pitch, rows.Count > 0 ? rows[^1] : h * 0.9);
+        var paper = Paper(w, h, rng, options.Wear, options.Grain, rows, rules, firstRule - pitch, rows.Count > 0 ? rows[^1] : h * 0.9);
         var ink = new float[w * h];
         foreach (var p in placed)
             for (var y = 0; y < p.H; y++)
@@ -74,7 +74,7 @@ public static class PageRenderer
         var light = Light.Sample(rng, w, h, options.Wear);
         var inkLum = (float)(0.05 + 0.2 * rng.NextDouble());
         var blur = options.Wear * (0.3 + 0.5 * rng.NextDouble());
-        var noise = options.Wear * (0.008 + 0.017 * rng.NextDouble());
+        var noise = options.Grain * (0.008 + 0.017 * rng.NextDouble());
         var page = Shade(0, 0, w, h, turn, light, paper, (px, py) => RasterOps.Bilinear(ink, w, h, px, py), inkLum);
         RasterOps.GaussianBlur(page, w, h, blur);
         var pixelNoise = new PixelNoise(rng.Next());
@@ -162,17 +162,17 @@ public static class PageRenderer
     /// <summary>Paper before the turn: its level, grain, stains and the rules (luminance, row-major).</summary>
     private sealed record PaperLayer(float[] Pixels, float Level);
 
-    private static PaperLayer Paper(int w, int h, Random rng, double wear, List<double> rows, double[] rules, double top, double bottom)
+    private static PaperLayer Paper(int w, int h, Random rng, double wear, double grain, List<double> rows, double[] rules, double top, double bottom)
     {
         var level = (float)(0.86 + 0.1 * rng.NextDouble());
         var p = new float[w * h];
         Array.Fill(p, level);
         var noise = new PixelNoise(rng.Next());
-        if (wear > 0)
+        if (wear > 0 || grain > 0)
         {
             var fine = RasterOps.ValueNoise(ref noise, w, h, 3);
             var coarse = RasterOps.ValueNoise(ref noise, w, h, 60);
-            var a = (float)(0.025 * wear);
+            var a = (float)(0.025 * grain);
             for (var i = 0; i < p.Length; i++) p[i] += a * (0.4f * fine[i] + 0.6f * coarse[i]);
             // Stains: soft, uneven blots (tea, damp), darker towards a rim now and then.
             var stains = rng.Next(0, 4);

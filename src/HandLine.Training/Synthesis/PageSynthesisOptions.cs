@@ -19,8 +19,11 @@ public sealed record PageSynthesisOptions
     /// <summary>Share of register pages (the rest are ledger pages).</summary>
     public double RegisterShare { get; init; } = 0.35;
 
-    /// <summary>Strength of stains, uneven light, paper grain, blur and noise; 0 draws clean paper.</summary>
+    /// <summary>Strength of stains, uneven light and blur; 0 draws clean paper.</summary>
     public double Wear { get; init; } = 1;
+
+    /// <summary>Strength of the paper's grain and the scanner's pixel noise (which make a PNG large); 0 for none.</summary>
+    public double Grain { get; init; } = 1;
 
     /// <summary>The smaller pages kept under fixtures/: a few hundred kilobytes for a handful.</summary>
     public static PageSynthesisOptions Small { get; } = new() { Width = 900, Height = 1100, FontSizePx = new(24, 28) };
@@ -33,7 +36,7 @@ public sealed record PageSynthesisOptions
             throw new ArgumentException("the writing size must be at least 10 px and fit eight rows on the page");
         if (MaxSkewDegrees is < 0 or > 10)
             throw new ArgumentException("the page skew must be within 0..10 degrees");
-        if (TouchingShare is < 0 or > 1 || RegisterShare is < 0 or > 1 || Wear is < 0 or > 2)
-            throw new ArgumentException("shares must be within 0..1 and the wear within 0..2");
+        if (TouchingShare is < 0 or > 1 || RegisterShare is < 0 or > 1 || Wear is < 0 or > 2 || Grain is < 0 or > 2)
+            throw new ArgumentException("shares must be within 0..1, the wear and the grain within 0..2");
     }
 }
