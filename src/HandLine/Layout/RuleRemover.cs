@@ -41,7 +41,9 @@ internal static class RuleRemover
             for (var x = 0; x < w; x++)
             {
                 var i = y * w + x;
-                var take = (onH[i] && RunAcross(dark, w, h, x, y, 0, 1, thick) <= thick)
+                // Where two rules cross, each runs long across the other: neither is writing.
+                var take = (onH[i] && onV[i])
+                           || (onH[i] && RunAcross(dark, w, h, x, y, 0, 1, thick) <= thick)
                            || (onV[i] && RunAcross(dark, w, h, x, y, 1, 0, thick) <= thick);
                 if (!take) continue;
                 removed[i] = 1;
