@@ -105,10 +105,23 @@ public static class PageRenderer
     private static Degradation Hand(Random rng, double size) =>
         Degradation.Sample(rng, new DegradationRanges()) with
         {
-            FontSizePx = size, PadLeftPx = 2, PadRightPx = 2, PadTopPx = 2, PadBottomPx = 2,
-            InkLuminance = 0, PaperLuminance = 1, RotationDegrees = 0, PaperTexture = 0, Lighting = 0,
-            BlurSigmaPx = 0, NoiseSigma = 0, JpegQuality = 0, RuledLineDarkness = 0, BleedThroughDarkness = 0,
-            Fading = 0, WobbleAmplitudePx = Math.Min(1.5, size / 25),
+            FontSizePx = size,
+            PadLeftPx = 2,
+            PadRightPx = 2,
+            PadTopPx = 2,
+            PadBottomPx = 2,
+            InkLuminance = 0,
+            PaperLuminance = 1,
+            RotationDegrees = 0,
+            PaperTexture = 0,
+            Lighting = 0,
+            BlurSigmaPx = 0,
+            NoiseSigma = 0,
+            JpegQuality = 0,
+            RuledLineDarkness = 0,
+            BleedThroughDarkness = 0,
+            Fading = 0,
+            WobbleAmplitudePx = Math.Min(1.5, size / 25),
         };
 
     private static Placed? Draw(string text, FontFace font, Degradation hand, Random rng, int entry, int column,

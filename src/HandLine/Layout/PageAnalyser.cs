@@ -1,4 +1,3 @@
-using HandLine.Formats;
 using HandLine.Imaging;
 
 namespace HandLine.Layout;

@@ -67,7 +67,10 @@ public sealed class Recogniser : IImageRecogniser
             ? results.Select(r => r with { Layout = "line" }).ToArray()
             : results.Select((r, i) => r with
             {
-                Layout = "page", Box = page[i].Box.ToArray(), Column = page[i].Column, Entry = page[i].Entry,
+                Layout = "page",
+                Box = page[i].Box.ToArray(),
+                Column = page[i].Column,
+                Entry = page[i].Entry,
             }).ToArray();
     }
 
