@@ -173,7 +173,12 @@ internal sealed class LineSegmenter
             foreach (var run in runs)
             {
                 int x0 = run.Min(p => p.MinX), x1 = run.Max(p => p.MaxX);
-                var members = run.Concat(small.Where(p => (p.MinX + p.MaxX) / 2.0 >= x0 - 0.5 * hText && (p.MinX + p.MaxX) / 2.0 <= x1 + 0.5 * hText)).ToList();
+                int top = run.Min(p => p.MinY), bottom = run.Max(p => p.MaxY);
+                // Dots, commas and dashes join the line they lie in, within its letters' height; scraps of a
+                // faint rule beside or under the writing do not widen it.
+                var members = run.Concat(small.Where(p =>
+                    (p.MinX + p.MaxX) / 2.0 >= x0 - 0.5 * hText && (p.MinX + p.MaxX) / 2.0 <= x1 + 0.5 * hText
+                    && p.MinY >= top - 0.3 * hText && p.MaxY <= bottom)).ToList();
                 int y0 = members.Min(p => p.MinY), y1 = members.Max(p => p.MaxY);
                 var ink = run.Sum(p => p.Area);
                 // A lone speck or a scrap of a stain is not a line.
@@ -185,12 +190,17 @@ internal sealed class LineSegmenter
             }
         }
 
-        // Reading order: entries top to bottom (peaks within half a text height are one row), each left to right.
+        // Reading order: entries top to bottom, each left to right. Lines of different columns are one entry when
+        // their peaks lie within half a line spacing (the median distance between neighbouring peaks of a column,
+        // at least a text height): a row's date, name and amount peak a little apart, as their letters differ.
+        var gaps = peaks.SelectMany(p => p.Zip(p.Skip(1), (a, b) => (double)(b - a))).Order().ToArray();
+        var spacing = Math.Max(hText, gaps.Length == 0 ? hText : gaps[gaps.Length / 2]);
         var ordered = segments.OrderBy(s => s.PeakY).ToList();
         var entries = new List<List<Segment>>();
         foreach (var s in ordered)
         {
-            if (entries.Count == 0 || s.PeakY - entries[^1][0].PeakY > 0.5 * hText) entries.Add([]);
+            if (entries.Count == 0 || s.PeakY - entries[^1][0].PeakY > 0.5 * spacing
+                || entries[^1].Any(e => e.Column == s.Column)) entries.Add([]);
             entries[^1].Add(s);
         }
         var result = new List<Segment>();
