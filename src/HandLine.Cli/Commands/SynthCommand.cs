@@ -13,7 +13,7 @@ internal static class SynthCommand
         {
             Description = "Font files or folders (.ttf, .otf, .woff; single-stroke Hershey faces .jhf, e.g. /usr/share/hershey-fonts)", Required = true, AllowMultipleArgumentsPerToken = true,
         };
-        var count = new Option<int>("--count") { Description = "Lines to render", Required = true };
+        var count = new Option<int>("--count") { Description = "Lines to render (with --pages: pages)", Required = true };
         var outDir = new Option<string>("--out") { Description = "Folder for lines/*.png, lines.tsv and degradations.jsonl", Required = true };
         var text = new Option<string?>("--text") { Description = "UTF-8 file of lines to render instead of generated ledger text" };
         var words = new Option<string?>("--words")

@@ -13,6 +13,9 @@ internal static class RuleRemover
 {
     private const int GapBridge = 2;
 
+    // Common practice, no source: longer than any letter's stroke at scanning resolutions up to about 400 dpi.
+    private const int MinRuleLengthPx = 60;
+
     /// <param name="dark">Pixels dark enough to be a rule (a faint rule is lighter than ink).</param>
     /// <param name="ink">Pixels dark enough to be writing; a copy is returned with the rules taken off.</param>
     public static RuleRemoval Remove(bool[] dark, byte[] ink, int w, int h, PageOptions options)
@@ -22,8 +25,10 @@ internal static class RuleRemover
         ArgumentNullException.ThrowIfNull(options);
         if (dark.Length != (long)w * h || ink.Length != dark.Length)
             throw new ArgumentException("the masks must both hold w x h pixels");
-        var minH = Math.Max(8, (int)(options.RuleMinLengthFraction * w));
-        var minV = Math.Max(8, (int)(options.RuleMinLengthFraction * h));
+        // Never shorter than MinRuleLengthPx: on a small image (a line taken as a page) a share of its height is
+        // no longer than a tall letter's stroke.
+        var minH = Math.Max(MinRuleLengthPx, (int)(options.RuleMinLengthFraction * w));
+        var minV = Math.Max(MinRuleLengthPx, (int)(options.RuleMinLengthFraction * h));
         var onH = new bool[dark.Length];
         var onV = new bool[dark.Length];
         // Along rows.
