@@ -17,7 +17,7 @@ public sealed class LayeringTests
 
     /// <summary>The library's folders in the order an image goes through them (DEVELOPERS.md, "Layout").</summary>
     private static readonly string[] StageOrder =
-        ["Formats", "Imaging", "Features", "Model", "Language", "Decoding", "Recognition", "Batch", "Scoring", "Calibration", "Proof", "Review"];
+        ["Formats", "Imaging", "Layout", "Features", "Model", "Language", "Decoding", "Recognition", "Batch", "Scoring", "Calibration", "Proof", "Review"];
 
     [Fact]
     public void EachFolderOfTheLibraryUsesOnlyTheFoldersBeforeIt()

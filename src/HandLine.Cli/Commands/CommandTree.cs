@@ -13,6 +13,7 @@ internal static class CommandTree
         var root = new RootCommand("HandLine: transcribe scanned handwritten text lines, score transcripts, train models.")
         {
             TranscribeCommand.Create(),
+            SegmentCommand.Create(),
             ScoreCommand.Create(),
             SampleCommand.Create(),
             ReviewCommand.Create(),

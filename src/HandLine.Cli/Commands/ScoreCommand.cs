@@ -30,9 +30,13 @@ internal static class ScoreCommand
         var expected = new Option<double?>("--expected-cer") { Description = "--plan: the CER expected, as a rate (the contract's threshold is a safe choice)" };
         var lineChars = new Option<double?>("--line-chars") { Description = "--plan: characters per line (default: measured on --truth/--run)" };
         var designEffect = new Option<double?>("--design-effect") { Description = "--plan: design effect for errors clustered in lines (default: measured on --truth/--run, else 1)" };
+        var boxes = new Option<string?>("--boxes")
+        {
+            Description = "Folder of truth line boxes, one TSV per page (x, y, w, h per line): score line detection (precision, recall, F1 at IoU >= 0.5) of a transcribe or segment folder; with --truth, also the page CER",
+        };
         var command = new Command("score", "Character and word error rates of a run against a truth manifest, with intervals, a verdict and a report")
         {
-            truth, run, json, rows, by, maxCer, resamples, seed, confusions, html, plan, halfWidth, expected, lineChars, designEffect,
+            truth, run, boxes, json, rows, by, maxCer, resamples, seed, confusions, html, plan, halfWidth, expected, lineChars, designEffect,
         };
         command.SetAction(parse => CommandRunner.Guard(() =>
         {
@@ -40,6 +44,19 @@ internal static class ScoreCommand
             var runPath = parse.GetValue(run);
             if (parse.GetValue(plan))
                 return Plan(truthPath, runPath, parse.GetValue(halfWidth), parse.GetValue(expected), parse.GetValue(lineChars), parse.GetValue(designEffect));
+            var boxesPath = parse.GetValue(boxes);
+            if (boxesPath is not null)
+            {
+                if (string.IsNullOrWhiteSpace(runPath)) throw new ArgumentException("score --boxes needs --run.");
+                var segmentation = SegmentationScore.ScoreRun(boxesPath, runPath);
+                if (string.IsNullOrWhiteSpace(truthPath))
+                {
+                    SegmentationReportWriter.Write(Console.Out, segmentation, parse.GetValue(json), null);
+                    return ExitCodes.Ok;
+                }
+                SegmentationReportWriter.Write(Console.Out, segmentation, parse.GetValue(json), Scorer.ScoreRun(truthPath, runPath));
+                return ExitCodes.Ok;
+            }
             if (string.IsNullOrWhiteSpace(truthPath) || string.IsNullOrWhiteSpace(runPath))
                 throw new ArgumentException("score needs --truth and --run (or --plan).");
             var options = new ProofOptions { Resamples = parse.GetValue(resamples), Seed = parse.GetValue(seed), MaxCer = parse.GetValue(maxCer) };

@@ -13,7 +13,7 @@ internal static class SynthCommand
         {
             Description = "Font files or folders (.ttf, .otf, .woff; single-stroke Hershey faces .jhf, e.g. /usr/share/hershey-fonts)", Required = true, AllowMultipleArgumentsPerToken = true,
         };
-        var count = new Option<int>("--count") { Description = "Lines to render", Required = true };
+        var count = new Option<int>("--count") { Description = "Lines to render (with --pages: pages)", Required = true };
         var outDir = new Option<string>("--out") { Description = "Folder for lines/*.png, lines.tsv and degradations.jsonl", Required = true };
         var text = new Option<string?>("--text") { Description = "UTF-8 file of lines to render instead of generated ledger text" };
         var words = new Option<string?>("--words")
@@ -32,13 +32,33 @@ internal static class SynthCommand
             DefaultValueFactory = _ => MnistSplit.Training,
             Description = "Which MNIST samples to use: Training (0-499 of each digit) or Validation (500-559); 560 onward are never used",
         };
-        var command = new Command("synth", "Render synthetic handwriting-style text lines for training")
+        var pages = new Option<bool>("--pages")
         {
-            fonts, count, outDir, text, words, seed, clean, mnist, split,
+            Description = "Draw whole ruled ledger and register pages instead of lines (--count pages): pages/*.png, " +
+                          "boxes/*.tsv (truth line boxes), pages.tsv, and the same writing as line images in lines/ and lines.tsv",
+        };
+        var pageSize = new Option<string>("--page-size")
+        {
+            Description = "--pages: page size in pixels, WIDTHxHEIGHT (the writing size follows the width)", DefaultValueFactory = _ => "1600x2200",
+        };
+        var wear = new Option<double>("--wear")
+        {
+            Description = "--pages: strength of stains, uneven light and blur (0..2; --clean is 0)", DefaultValueFactory = _ => 1,
+        };
+        var grain = new Option<double>("--grain")
+        {
+            Description = "--pages: strength of the paper's grain and pixel noise (0..2; --clean is 0; makes PNGs large)", DefaultValueFactory = _ => 1,
+        };
+        var command = new Command("synth", "Render synthetic handwriting-style text lines (or ruled pages) for training and testing")
+        {
+            fonts, count, outDir, text, words, seed, clean, mnist, split, pages, pageSize, wear, grain,
         };
         command.SetAction(parse => CommandRunner.Guard(() =>
         {
             if (parse.GetValue(count) < 1) throw new ArgumentException("--count must be at least 1");
+            if (parse.GetValue(pages))
+                return Pages(parse.GetValue(fonts)!, parse.GetValue(count), parse.GetValue(outDir)!, parse.GetValue(seed),
+                    parse.GetValue(pageSize)!, parse.GetValue(clean) ? 0 : parse.GetValue(wear), parse.GetValue(clean) ? 0 : parse.GetValue(grain), parse.GetValue(text) is not null || parse.GetValue(words) is not null || parse.GetValue(mnist) is not null);
             var wordsPath = parse.GetValue(words);
             if (wordsPath is not null && (parse.GetValue(text) is not null || parse.GetValue(mnist) is not null))
                 throw new ArgumentException("--words cannot be combined with --text or --mnist, which bring their own text");
@@ -78,5 +98,26 @@ internal static class SynthCommand
             return ExitCodes.Ok;
         }));
         return command;
+    }
+
+    private static int Pages(string[] fontPaths, int count, string outDir, int seed, string size, double wear, double grain, bool otherText)
+    {
+        if (otherText)
+            throw new ArgumentException("--pages draws the estate's ledger and register text: it cannot be combined with --text, --words or --mnist");
+        var parts = size.Split('x');
+        if (parts.Length != 2 || !int.TryParse(parts[0], NumberStyles.None, CultureInfo.InvariantCulture, out var w)
+            || !int.TryParse(parts[1], NumberStyles.None, CultureInfo.InvariantCulture, out var h))
+            throw new ArgumentException($"--page-size must be WIDTHxHEIGHT in pixels, e.g. 1600x2200 (got '{size}')");
+        var options = new PageSynthesisOptions
+        {
+            Width = w, Height = h, Wear = wear, Grain = grain,
+            // 30-40 px on a 1600 px page, in proportion on others.
+            FontSizePx = new Interval(Math.Max(14, 0.019 * w), Math.Max(18, 0.025 * w)),
+        };
+        using var catalog = FontCatalog.Load(fontPaths);
+        foreach (var e in catalog.Errors) Console.Error.WriteLine($"skipped font: {e.Message}");
+        var (written, lines) = PageSynthesiser.Generate(catalog, count, outDir, seed, options, Console.Error);
+        Console.Error.WriteLine($"{written} pages with {lines} lines written to {Path.Combine(outDir, PageSynthesiser.PagesManifest)}");
+        return ExitCodes.Ok;
     }
 }

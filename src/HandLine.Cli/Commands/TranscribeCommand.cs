@@ -1,5 +1,6 @@
 using System.CommandLine;
 using HandLine.Batch;
+using HandLine.Layout;
 using HandLine.Model;
 using HandLine.Recognition;
 
@@ -44,10 +45,16 @@ internal static class TranscribeCommand
             }
         });
 
+        var layout = new Option<LayoutMode>("--layout")
+        {
+            Description = "How to take each image: Auto (decide from the image), Page (a whole page: deskew, rules, columns, lines in reading order) or Line (a line image or a strip of a few lines)",
+            DefaultValueFactory = _ => LayoutMode.Auto,
+        };
+        var alto = new Option<bool>("--alto") { Description = "Also write one ALTO XML v4 file per page (NAME.alto.xml: text blocks, lines, words with confidence)" };
         var decoding = new DecodingArguments();
         var command = new Command("transcribe", "Transcribe line or page images into text plus confidence reports")
         {
-            inputs, outDir, model, flagBelow, rotation,
+            inputs, outDir, model, flagBelow, rotation, layout, alto,
         };
         foreach (var option in decoding.All) command.Options.Add(option);
         var batch = BatchCommandOptions.AddTo(command, transcribing: true);
@@ -59,7 +66,8 @@ internal static class TranscribeCommand
                 // Built inside the guard: a bad word list or language model is a clear error, exit code 2.
                 var options = new TranscribeOptions(
                     parse.GetValue(outDir)!, parse.GetValue(model) ?? DefaultModel.PathBesideExecutable, parse.GetValue(flagBelow),
-                    Decoding: decoding.Build(parse), Orientation: OrientationOptions.Parse(parse.GetValue(rotation)!));
+                    Decoding: decoding.Build(parse), Orientation: OrientationOptions.Parse(parse.GetValue(rotation)!),
+                    Layout: parse.GetValue(layout), Alto: parse.GetValue(alto));
                 TorchRuntime.SetThreads(batch.Threads(parse));
                 var s = TranscribeRun.Run(parse.GetValue(inputs)!, options, batch.Read(parse), Console.Error, cancel);
                 var say = batch.Quiet(parse) ? TextWriter.Null : Console.Error;

@@ -13,7 +13,11 @@ public static class LineRenderer
     private const int MaxPixels = 16_000_000;
 
     /// <summary>Renders the text as luminance (0 black, 1 white) on a crop around the ink.</summary>
-    public static GrayImage Render(string text, FontFace font, Degradation d)
+    public static GrayImage Render(string text, FontFace font, Degradation d) => Render(text, font, d, out _);
+
+    /// <summary>As <see cref="Render(string, FontFace, Degradation)"/>, and the row of the crop the writing stands on
+    /// (where the line starts), so a page can set the line on its rule.</summary>
+    internal static GrayImage Render(string text, FontFace font, Degradation d, out float baselineY)
     {
         ArgumentNullException.ThrowIfNull(text);
         ArgumentNullException.ThrowIfNull(font);
@@ -36,6 +40,7 @@ public static class LineRenderer
             throw new ArgumentException($"Line too large to render ({w}x{h} pixels).", nameof(text));
         ink.Transform(SKMatrix.CreateTranslation(-left, -top));
         baseline = new Baseline(baseline.X - left, baseline.Y - top, baseline.AngleRadians);
+        baselineY = baseline.Y;
 
         return Finish(ink.Rasterise(w, h), w, h, d, baseline, master);
     }

@@ -89,6 +89,35 @@ public sealed class PhraseGenerator
         return line;
     }
 
+    /// <summary>
+    /// One entry of an account-book page: what the clerk wrote in the margin (a date or a number, often nothing), the
+    /// description, and the sum for the money column (null when the row has none, as for a note or a heading).
+    /// </summary>
+    internal (string? Margin, string Description, string? Amount) LedgerEntry()
+    {
+        var margin = Chance(0.3) ? (Chance(0.6) ? ShortDate() : $"No. {_rng.Next(1, 300)}") : null;
+        var description = _rng.Next(12) switch
+        {
+            0 => $"Recd of {Person()}",
+            1 => $"Pd {Person()}, {Pick(V.Trades)}",
+            2 => $"To {Pick(V.Services)}",
+            3 => $"{Quantity()} {Pick(["at", "per", "a"])} {Price()}",
+            4 => $"By cash of {Mister()}",
+            5 => $"Rent of {Pick(V.Farms)}",
+            6 => $"{Pick(["do.", "Do.", "ditto"])} {Pick(V.Services)}",
+            7 => $"Carried to fol. {Folio()}",
+            8 => $"Quit rent {Pick(V.Farms)}",
+            9 => Pick(["Total", "Balance", "Arrears", "Sundries"]),
+            10 => $"Exors. of {Person()}",
+            _ => $"{Quantity()}",
+        };
+        return (margin, description, Chance(0.85) ? Money() : null);
+    }
+
+    /// <summary>One entry of a burial register page: number, name, abode and date of burial.</summary>
+    internal (string Number, string Name, string Abode, string Date) RegisterEntry() =>
+        (_rng.Next(1, 900).ToString(Inv), Person(), Pick(V.Places), Chance(0.5) ? ShortDate() : Date());
+
     /// <summary>How often each symbol (code point) occurs in the lines, in ordinal order.</summary>
     public static IReadOnlyDictionary<string, int> CountSymbols(IEnumerable<string> lines)
     {

@@ -1,7 +1,9 @@
 using System.Security.Cryptography;
 using System.Text.Json;
+using System.Text.Json.Serialization;
 using HandLine.Decoding;
 using HandLine.Recognition;
+using HandLine.Layout;
 
 namespace HandLine.Batch;
 
@@ -16,11 +18,13 @@ public static class OptionsFingerprint
     public static string Of(TranscribeOptions options)
     {
         ArgumentNullException.ThrowIfNull(options);
+        // Auto layout adds nothing, so runs made before layouts existed keep their hash and resume.
         var json = JsonSerializer.SerializeToUtf8Bytes(new ResultSettings(options.FlagBelow, options.Decoding,
-            options.Orientation ?? OrientationOptions.Auto));
+            options.Orientation ?? OrientationOptions.Auto, options.Layout == LayoutMode.Auto ? null : options.Layout.ToString()));
         return Convert.ToHexStringLower(SHA256.HashData(json))[..16];
     }
 
     /// <summary>What is hashed; a setting of a run's results added later belongs here.</summary>
-    private sealed record ResultSettings(double FlagBelow, DecodingOptions? Decoding, OrientationOptions Orientation);
+    private sealed record ResultSettings(double FlagBelow, DecodingOptions? Decoding, OrientationOptions Orientation,
+        [property: JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] string? Layout);
 }

@@ -60,6 +60,10 @@ internal sealed class RunReports : IDisposable
                 ["slant_deg"] = Math.Round(r.SlantDegrees, 2),
                 ["rotation_deg"] = r.RotationDegrees,
             };
+            if (r.Layout is not null) record["layout"] = r.Layout;
+            if (r.Box is not null) record["box"] = r.Box;
+            if (r.Column is not null) record["column"] = r.Column;
+            if (r.Entry is not null) record["entry"] = r.Entry;
             if (r.Alternatives.Count > 0)
             {
                 record["alternatives"] = r.Alternatives.Select(a => new Dictionary<string, object>

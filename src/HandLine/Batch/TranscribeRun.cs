@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using HandLine.Decoding;
 using HandLine.Imaging;
+using HandLine.Layout;
 using HandLine.Model;
 using HandLine.Recognition;
 
@@ -13,7 +14,9 @@ public sealed record TranscribeOptions(
     double FlagBelow = TranscribeOptions.DefaultFlagBelow,
     InputLimits? Limits = null,
     DecodingOptions? Decoding = null,
-    OrientationOptions? Orientation = null)
+    OrientationOptions? Orientation = null,
+    LayoutMode Layout = LayoutMode.Auto,
+    bool Alto = false)
 {
     /// <summary>Lines whose confidence is below this are flagged for review (see <see cref="Recogniser.DefaultFlagBelow"/>).</summary>
     public const double DefaultFlagBelow = Recogniser.DefaultFlagBelow;
@@ -53,12 +56,17 @@ public static class TranscribeRun
         var started = DateTime.UtcNow;
         Directory.CreateDirectory(options.OutDir);
         using var model = ModelFile.Load(options.ModelPath);
-        var recogniser = new Recogniser(model, options.Limits, options.Decoding, options.FlagBelow, orientation: options.Orientation);
+        var recogniser = new Recogniser(model, options.Limits, options.Decoding, options.FlagBelow, orientation: options.Orientation)
+        {
+            Layout = options.Layout,
+        };
         var (sources, inputErrors) = InputSet.Expand(inputs);
 
         var job = new BatchJob(options.OutDir, sources, inputErrors, recogniser,
             RunSettings.Of(recogniser, options.FlagBelow, options.ModelPath), OptionsFingerprint.Of(options), batch, started, clock);
         var c = BatchRunner.Run(job, new BatchProgress(progress, batch.Progress, batch), cancel);
+        if (options.Alto && !c.Cancelled)
+            AltoWriter.WriteRun(options.OutDir, sources, model.Id);
         return new TranscribeSummary(c.Sources, c.Lines, c.Flagged, c.Errors, clock.Elapsed.TotalSeconds, model.Id)
         {
             Reused = c.Reused, Cancelled = c.Cancelled,

@@ -17,8 +17,22 @@ public static class TranscriptFile
     public static string FullPathFor(string outDir, string source) =>
         Path.Combine(outDir, RelativePathFor(source).Replace('/', Path.DirectorySeparatorChar));
 
-    /// <summary>One recognised line per text line, each ended by a line feed.</summary>
-    public static string TextOf(IReadOnlyList<LineResult> lines) => string.Join("\n", lines.Select(r => r.Text)) + "\n";
+    /// <summary>
+    /// One recognised line per text line, each ended by a line feed; on a page, the parts of one entry (a ruled row:
+    /// description and amounts) share a text line, separated by tabs, in reading order.
+    /// </summary>
+    public static string TextOf(IReadOnlyList<LineResult> lines)
+    {
+        var text = new System.Text.StringBuilder();
+        for (var i = 0; i < lines.Count; i++)
+        {
+            text.Append(lines[i].Text);
+            var sameEntry = i + 1 < lines.Count && lines[i].Entry is { } e && lines[i + 1].Entry == e;
+            text.Append(sameEntry ? '\t' : '\n');
+        }
+        if (lines.Count == 0) text.Append('\n');
+        return text.ToString();
+    }
 
     /// <summary>Writes the file atomically unless it already holds exactly this text.</summary>
     public static void Write(string outDir, string source, IReadOnlyList<LineResult> lines, bool skipIfSame)

@@ -1,4 +1,5 @@
 using HandLine.Imaging;
+using HandLine.Layout;
 
 namespace HandLine.Features;
 
@@ -14,6 +15,7 @@ public sealed class LinePreparer
 {
     private readonly LineFinder _finder;
     private readonly LineNormaliser _normaliser;
+    private readonly PageAnalyser _pages = new();
 
     /// <param name="features">What the model fixes: line height, slant correction, binarisation, features.</param>
     /// <param name="tuning">The imaging stage's tuning values; null for the defaults.</param>
@@ -69,7 +71,7 @@ public sealed class LinePreparer
         return PreparePage(Load(imageBytes, nameForErrors), nameForErrors);
     }
 
-    /// <summary>Stages 2 to 4 for one loaded image (for instance one turned upright first).</summary>
+    /// <summary>Stages 2 to 4 for one loaded image taken as lines (for instance one turned upright first).</summary>
     public IReadOnlyList<PreparedLine> PreparePage(GrayImage page, string nameForErrors)
     {
         ArgumentNullException.ThrowIfNull(page);
@@ -83,5 +85,32 @@ public sealed class LinePreparer
         if (prepared.Length == 0)
             throw new InputException(nameForErrors, "normalise", "no ink found: the image looks blank");
         return prepared;
+    }
+
+    /// <summary>Whether <see cref="PrepareImage"/> takes this image as a whole page.</summary>
+    public bool TakesAsPage(GrayImage image, LayoutMode layout) =>
+        layout == LayoutMode.Page || (layout == LayoutMode.Auto && _pages.LooksLikePage(image));
+
+    /// <summary>
+    /// Stages 2 to 4 for one loaded image taken as <paramref name="layout"/> says (auto: <see cref="PageAnalyser.LooksLikePage"/>):
+    /// as lines, the lines of <see cref="PreparePage(GrayImage, string)"/>; as a page, the lines the page stage
+    /// (<see cref="PageAnalyser.Analyse"/>) finds, in reading order, each with its place on the page (box, column, entry).
+    /// </summary>
+    public IReadOnlyList<PreparedLine> PrepareImage(GrayImage image, string nameForErrors, LayoutMode layout)
+    {
+        ArgumentNullException.ThrowIfNull(image);
+        ArgumentNullException.ThrowIfNull(nameForErrors);
+        if (!TakesAsPage(image, layout)) return PreparePage(image, nameForErrors);
+        var found = _pages.Analyse(image).Lines;
+        var lines = new List<PreparedLine>(found.Count);
+        foreach (var line in found)
+        {
+            var prepared = Prepare(line.Image, nameForErrors);
+            if (!prepared.Line.HasInk) continue;
+            lines.Add(prepared with { Layout = "page", Box = line.Box, Column = line.Column, Entry = line.Entry });
+        }
+        if (lines.Count == 0)
+            throw new InputException(nameForErrors, "segment", "no lines found: the page looks blank");
+        return lines;
     }
 }

@@ -1,3 +1,4 @@
+using HandLine.Formats;
 using HandLine.Imaging;
 
 namespace HandLine.Features;
@@ -7,4 +8,16 @@ public sealed record PreparedLine(NormalisedLine Line, FeatureSequence Features)
 {
     /// <summary>How far the image was turned before its lines were found (0, 90, 180 or 270 degrees).</summary>
     public int RotationDegrees { get; init; }
+
+    /// <summary>How the image was taken: "line" (a line image or a strip of lines) or "page" (a whole page).</summary>
+    public string Layout { get; init; } = "line";
+
+    /// <summary>Page lines: the line's box in the (upright) page's pixels.</summary>
+    public LineBox? Box { get; init; }
+
+    /// <summary>Page lines: the column the line stands in.</summary>
+    public int? Column { get; init; }
+
+    /// <summary>Page lines: the entry (ruled row) the line belongs to.</summary>
+    public int? Entry { get; init; }
 }

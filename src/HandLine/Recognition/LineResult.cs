@@ -18,4 +18,16 @@ public sealed record LineResult(
 
     /// <summary>How far the image's text was turned clockwise from upright (0, 90, 180 or 270); it was read turned back.</summary>
     public int RotationDegrees { get; init; }
+
+    /// <summary>How the image was taken: "line" (a line image or a strip of lines) or "page" (a whole page).</summary>
+    public string? Layout { get; init; }
+
+    /// <summary>Page lines: the line's box [x, y, w, h] in the page's pixels.</summary>
+    public int[]? Box { get; init; }
+
+    /// <summary>Page lines: the column the line stands in (0 = left of the first column divider).</summary>
+    public int? Column { get; init; }
+
+    /// <summary>Page lines: the entry (ruled row) the line belongs to, counted from 0 down the page.</summary>
+    public int? Entry { get; init; }
 }

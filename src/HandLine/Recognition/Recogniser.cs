@@ -1,6 +1,7 @@
 using HandLine.Decoding;
 using HandLine.Features;
 using HandLine.Imaging;
+using HandLine.Layout;
 using HandLine.Model;
 
 namespace HandLine.Recognition;
@@ -61,6 +62,9 @@ public sealed class Recogniser : IImageRecogniser
     public LineDecoder Decoder { get; }
 
     public OrientationOptions Orientation { get; }
+
+    /// <summary>How images are taken: as lines, as whole pages, or decided per image (the default).</summary>
+    public LayoutMode Layout { get; init; } = LayoutMode.Auto;
 
     public InputLimits Limits => Lines.Limits;
 
@@ -138,10 +142,14 @@ public sealed class Recogniser : IImageRecogniser
     /// <summary>
     /// The rotations worth reading, in order: the ink cue's axis first (<see cref="OrientationEstimator"/>), both of
     /// its readings; all four when the cue is unsure; upright only when there is no ink (the blank image is then
-    /// reported as it always has been).
+    /// reported as it always has been); for an image taken as a whole page, upright and upside down only.
     /// </summary>
     private int[] Candidates(GrayImage page)
     {
+        // The ink cue measures lines; a ruled page's rules and columns mislead it (the fixtures' pages read as lying
+        // sideways), and read across, a page gives short scraps that can outscore the real reading. A page is
+        // compared only with itself upside down; a page lying sideways needs --rotation.
+        if (Lines.TakesAsPage(page, Layout)) return [0, 180];
         if (OrientationEstimator.Guess(page, Lines.Tuning) is not { } guess) return [0];
         return guess.AxisMargin >= Orientation.SureAxisMargin ? [0, 180]
             : guess.AxisMargin <= -Orientation.SureAxisMargin ? [90, 270]
@@ -149,7 +157,7 @@ public sealed class Recogniser : IImageRecogniser
     }
 
     private IReadOnlyList<PreparedLine> PrepareAt(GrayImage page, int rotation, string nameForErrors) =>
-        Lines.PreparePage(QuarterTurn.Upright(page, rotation), nameForErrors).Select(p => p with { RotationDegrees = rotation }).ToArray();
+        Lines.PrepareImage(QuarterTurn.Upright(page, rotation), nameForErrors, Layout).Select(p => p with { RotationDegrees = rotation }).ToArray();
 
     /// <summary>The model's mean confidence over a reading's characters.</summary>
     private static double Score(IReadOnlyList<LineResult> results)
@@ -184,7 +192,14 @@ public sealed class Recogniser : IImageRecogniser
             var h = Decoder.Decode(posteriors[i]);
             results[i] = new LineResult(source, i, h.Text, h.Confidence, h.Confidence < _flagBelow, h.Chars,
                 lines[i].Line.DeskewDegrees, lines[i].Line.SlantDegrees)
-            { Alternatives = h.Alternatives, RotationDegrees = lines[i].RotationDegrees };
+            {
+                Alternatives = h.Alternatives,
+                RotationDegrees = lines[i].RotationDegrees,
+                Layout = lines[i].Layout,
+                Box = lines[i].Box?.ToArray(),
+                Column = lines[i].Column,
+                Entry = lines[i].Entry,
+            };
         }
         return results;
     }
