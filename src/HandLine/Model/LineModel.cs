@@ -72,12 +72,14 @@ public sealed class LineModel : IDisposable
     }
 
     /// <summary>Saves with an updated header; returns the new model id.</summary>
-    public string Save(string path, TrainingRecord? training, double? validationCer) =>
+    /// <param name="adaptation">What the model was adapted on (<c>adapt</c>); null keeps the header's.</param>
+    public string Save(string path, TrainingRecord? training, double? validationCer, AdaptationRecord? adaptation = null) =>
         ModelFile.Save(path, Header with
         {
             Training = training ?? Header.Training,
             ValidationCer = validationCer,
             CreatedUtc = DateTime.UtcNow.ToString("O"),
+            Adaptation = adaptation ?? Header.Adaptation,
         }, Network);
 
     /// <summary>Posteriors for one line.</summary>

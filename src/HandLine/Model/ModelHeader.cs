@@ -23,7 +23,8 @@ public sealed record ModelHeader(
     [property: JsonPropertyName("training")] TrainingRecord? Training,
     [property: JsonPropertyName("validation_cer")] double? ValidationCer,
     [property: JsonPropertyName("created_utc")] string CreatedUtc,
-    [property: JsonPropertyName("weights_sha256")] string WeightsSha256 = "")
+    [property: JsonPropertyName("weights_sha256")] string WeightsSha256 = "",
+    [property: JsonPropertyName("adaptation"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] AdaptationRecord? Adaptation = null)
 {
     public const int CurrentFormatVersion = 1;
 }
