@@ -17,6 +17,7 @@ internal static class CommandTree
             SampleCommand.Create(),
             ReviewCommand.Create(),
             CorrectCommand.Create(),
+            AdaptCommand.Create(),
             SynthCommand.Create(),
             TrainCommand.Create(),
             MergeCommand.Create(),
