@@ -92,9 +92,7 @@ public static class Adapter
                 var scratchModel = Path.Combine(scratch.FullName, ModelFileName);
                 var recipe = new TrainingRecord("handline adapt", [Path.GetFileName(correctionsPath)], "held-back corrections",
                     options.Seed, 0, 0, 0, original.Id);
-                var result = new Trainer(progress).Train(model, [.. train, .. replay], held, scratchModel, options.Training(options.Seed), recipe, cancel);
-                minutes = result.Minutes;
-                after = result.BestValidationCer;
+                (after, minutes) = Fit(model, train, replay, held, scratchModel, options, recipe, progress, cancel);
                 if (cancel.IsCancellationRequested)
                     return new AdaptResult(train.Count, held.Count, replayCount, before, after, Refused: false, Cancelled: true, null, null, false, minutes, skipped);
                 if (after > before)
@@ -120,6 +118,18 @@ public static class Adapter
             Sources = counts.Sources, SourcesRead = sourcesRead, Lines = counts.Lines, Flagged = counts.Flagged, Errors = counts.Errors,
             ReReadSeconds = seconds,
         };
+    }
+
+    /// <summary>
+    /// Fine-tunes <paramref name="model"/> on the training lines mixed with the replayed ones, stopping early on the
+    /// held-back lines; the weights that read them best are saved at <paramref name="modelPath"/>.
+    /// </summary>
+    /// <returns>The held-back CER of the saved weights, and the minutes spent.</returns>
+    internal static (double HeldBackCer, double Minutes) Fit(LineModel model, IReadOnlyList<LineSample> train, IReadOnlyList<LineSample> replay,
+        IReadOnlyList<LineSample> held, string modelPath, AdaptOptions options, TrainingRecord recipe, TextWriter progress, CancellationToken cancel)
+    {
+        var result = new Trainer(progress).Train(model, [.. train, .. replay], held, modelPath, options.Training(options.Seed), recipe, cancel);
+        return (result.BestValidationCer, result.Minutes);
     }
 
     /// <summary>An independent copy of a model (the trainer changes the weights it is given).</summary>
