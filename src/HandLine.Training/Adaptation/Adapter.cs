@@ -101,7 +101,9 @@ public static class Adapter
                 using var adapted = ModelFile.Load(scratchModel);
                 adapted.Save(modelOut, null, Math.Round(after, 5), record with
                 {
-                    ReplayLines = replayCount, HeldBackCerBefore = Math.Round(before, 5), HeldBackCerAfter = Math.Round(after, 5),
+                    ReplayLines = replayCount,
+                    HeldBackCerBefore = Math.Round(before, 5),
+                    HeldBackCerAfter = Math.Round(after, 5),
                 });
             }
             finally
