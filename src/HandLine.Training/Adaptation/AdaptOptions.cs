@@ -35,7 +35,7 @@ public sealed record AdaptOptions
     public int Passes { get; init; } = 10;
 
     /// <summary>Adam step size; fine-tuning takes smaller steps than training from scratch.</summary>
-    public double LearningRate { get; init; } = 3e-4;
+    public double LearningRate { get; init; } = 1e-3;
 
     public int BatchSize { get; init; } = 8;
 
