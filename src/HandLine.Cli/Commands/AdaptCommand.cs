@@ -75,7 +75,7 @@ internal static class AdaptCommand
                 $"held-back lines ({r.HeldBackLines}): CER {r.HeldBackCerBefore:P2} before, {r.HeldBackCerAfter:P2} after");
             if (r.Refused)
             {
-                Console.Error.WriteLine($"refused: the adapted model reads the held-back corrections worse than the model did ({check}); nothing was written. Correct more lines, or try --learning-rate lower.");
+                Console.Error.WriteLine($"refused: the adapted model reads the held-back corrections worse than the model did ({check}); nothing was written. Correct more lines, or give a smaller --learning-rate.");
                 return ExitCodes.AdaptRefused;
             }
             if (r.ModelPath is null)
