@@ -18,6 +18,7 @@ internal static class CommandTree
             SampleCommand.Create(),
             ReviewCommand.Create(),
             CorrectCommand.Create(),
+            AdaptCommand.Create(),
             SynthCommand.Create(),
             TrainCommand.Create(),
             MergeCommand.Create(),

@@ -17,6 +17,9 @@ internal static class ExitCodes
     /// <summary><c>score --max-cer</c>: the 95 % interval contains the threshold; the sample cannot tell.</summary>
     public const int ProofInconclusive = 4;
 
+    /// <summary><c>adapt</c>: the adapted model read the held-back corrections worse than the model did before; nothing written.</summary>
+    public const int AdaptRefused = 5;
+
     /// <summary>Stopped by Ctrl+C after finishing the current item; reports are consistent.</summary>
     public const int Cancelled = 130;
 }

@@ -20,13 +20,19 @@ internal static class ReviewCommand
             Description = "Mark a character doubtful when its confidence is below this",
             DefaultValueFactory = _ => new ReviewOptions { ImagesRoot = "." }.DoubtBelow,
         };
+        var pick = new Option<int?>("--pick") { Description = "Show only the N lines worth correcting first (least sure, spread over the sources, covering the least sure characters) instead of the flagged ones" };
+        var seed = new Option<int>("--seed") { Description = "Seed for --pick's ties: same run, same seed, same lines", DefaultValueFactory = _ => 1 };
         var command = new Command("review", "Write a page for checking a run's flagged lines in a browser, lowest confidence first; it exports the corrections for 'correct'")
         {
-            runDir, outPath, images, all, doubt,
+            runDir, outPath, images, all, doubt, pick, seed,
         };
         command.SetAction(parse => CommandRunner.Guard(() =>
         {
-            var options = new ReviewOptions { ImagesRoot = parse.GetValue(images)!, All = parse.GetValue(all), DoubtBelow = parse.GetValue(doubt) };
+            var options = new ReviewOptions
+            {
+                ImagesRoot = parse.GetValue(images)!, All = parse.GetValue(all), DoubtBelow = parse.GetValue(doubt),
+                Pick = parse.GetValue(pick), Seed = parse.GetValue(seed),
+            };
             var page = ReviewPage.Build(parse.GetValue(runDir)!, options);
             var path = parse.GetValue(outPath)!;
             AtomicFile.WriteAllText(path, page.Html);

@@ -2,8 +2,8 @@ using System.Security.Cryptography;
 using System.Text.Json;
 using System.Text.Json.Serialization;
 using HandLine.Decoding;
-using HandLine.Recognition;
 using HandLine.Layout;
+using HandLine.Recognition;
 
 namespace HandLine.Batch;
 

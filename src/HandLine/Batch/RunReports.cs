@@ -73,6 +73,13 @@ internal sealed class RunReports : IDisposable
                     ["share"] = Math.Round(a.Share, 4),
                 }).ToArray();
             }
+            if (r.MachineText is not null)
+            {
+                // The fields, and their order, that 'correct' gives a checked line.
+                record["machine_text"] = r.MachineText;
+                record["corrected"] = true;
+                record["illegible"] = r.Illegible ?? false;
+            }
             Jsonl.WriteLine(JsonSerializer.Serialize(record, JsonLine));
             Csv.WriteLine(string.Join(',',
                 CsvField(r.Source), r.Line.ToString(CultureInfo.InvariantCulture), CsvField(r.Text),

@@ -92,6 +92,17 @@ public sealed class LinePreparer
         layout == LayoutMode.Page || (layout == LayoutMode.Auto && _pages.LooksLikePage(image));
 
     /// <summary>
+    /// Whether the image would be taken as a page both as it is and turned a quarter: true of a page, false of a
+    /// line image lying sideways (tall and narrow, it passes for a page only as it lies).
+    /// </summary>
+    public bool TakesAsPageEitherWay(GrayImage image, LayoutMode layout)
+    {
+        ArgumentNullException.ThrowIfNull(image);
+        return layout == LayoutMode.Page
+               || (layout == LayoutMode.Auto && _pages.LooksLikePage(image) && _pages.LooksLikePage(image.Height, image.Width));
+    }
+
+    /// <summary>
     /// Stages 2 to 4 for one loaded image taken as <paramref name="layout"/> says (auto: <see cref="PageAnalyser.LooksLikePage"/>):
     /// as lines, the lines of <see cref="PreparePage(GrayImage, string)"/>; as a page, the lines the page stage
     /// (<see cref="PageAnalyser.Analyse"/>) finds, in reading order, each with its place on the page (box, column, entry).

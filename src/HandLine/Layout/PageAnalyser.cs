@@ -37,8 +37,11 @@ public sealed class PageAnalyser
     public bool LooksLikePage(GrayImage image)
     {
         ArgumentNullException.ThrowIfNull(image);
-        return image.Height >= _options.PageMinHeight && image.Height * 2 >= image.Width;
+        return LooksLikePage(image.Width, image.Height);
     }
+
+    /// <summary>The same test on an image's size alone (so a caller can ask about the image turned a quarter).</summary>
+    public bool LooksLikePage(int width, int height) => height >= _options.PageMinHeight && height * 2 >= width;
 
     /// <summary>The page's lines, in reading order; none for a blank page.</summary>
     public PageLayout Analyse(GrayImage page)

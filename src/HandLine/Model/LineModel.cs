@@ -75,7 +75,8 @@ public sealed class LineModel : IDisposable
     /// Saves with an updated header; returns the new model id. The temperature goes back to 1: it was fitted to
     /// the weights before this training.
     /// </summary>
-    public string Save(string path, TrainingRecord? training, double? validationCer) =>
+    /// <param name="adaptation">What the model was adapted on (<c>adapt</c>); null keeps the header's.</param>
+    public string Save(string path, TrainingRecord? training, double? validationCer, AdaptationRecord? adaptation = null) =>
         ModelFile.Save(path, Header with
         {
             Training = training ?? Header.Training,
@@ -83,6 +84,7 @@ public sealed class LineModel : IDisposable
             CreatedUtc = DateTime.UtcNow.ToString("O"),
             Temperature = null,
             TemperatureFit = null,
+            Adaptation = adaptation ?? Header.Adaptation,
         }, Network);
 
     /// <summary>Saves the same weights with a fitted temperature; returns the new model id.</summary>

@@ -39,7 +39,8 @@ public sealed record ModelHeader(
     [property: JsonPropertyName("created_utc")] string CreatedUtc,
     [property: JsonPropertyName("weights_sha256")] string WeightsSha256 = "",
     [property: JsonPropertyName("temperature"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] double? Temperature = null,
-    [property: JsonPropertyName("temperature_fit"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] TemperatureRecord? TemperatureFit = null)
+    [property: JsonPropertyName("temperature_fit"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] TemperatureRecord? TemperatureFit = null,
+    [property: JsonPropertyName("adaptation"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] AdaptationRecord? Adaptation = null)
 {
     public const int CurrentFormatVersion = 1;
 }

@@ -13,6 +13,12 @@ public sealed record ProofSampleOptions
     /// <summary>Share of the run's lines to draw, in (0, 1]; rounded to whole lines, at least one.</summary>
     public double? Fraction { get; init; }
 
+    /// <summary>
+    /// Lines worth correcting first (<see cref="LinePicker"/>) instead of a random draw; null for a proof sample. Such a
+    /// pick is for keying lines that teach a model, never for judging the run: it is chosen for its doubt.
+    /// </summary>
+    public int? Pick { get; init; }
+
     public int Seed { get; init; }
 
     /// <summary>
@@ -27,8 +33,10 @@ public sealed record ProofSampleOptions
     /// <exception cref="ArgumentException">Neither or both of count and fraction, or one out of range.</exception>
     public void Validate()
     {
-        if (Count is null == Fraction is null)
-            throw new ArgumentException("Give either a count or a fraction of lines to draw.");
+        if ((Count is null ? 0 : 1) + (Fraction is null ? 0 : 1) + (Pick is null ? 0 : 1) != 1)
+            throw new ArgumentException("Give one of a count, a fraction or a number of lines to pick.");
+        if (Pick is { } pick && pick < 1)
+            throw new ArgumentException($"The number of lines to pick must be at least 1, not {pick}.");
         if (Count is { } count && count < 1)
             throw new ArgumentException($"The count must be at least 1, not {count}.");
         if (Fraction is { } f && !(f > 0 && f <= 1))

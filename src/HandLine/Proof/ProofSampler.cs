@@ -49,12 +49,21 @@ public static class ProofSampler
             .OrderBy(g => g.Key, StringComparer.Ordinal)
             .Select(g => (Folder: g.Key, Lines: g.OrderBy(l => l.Source, StringComparer.Ordinal).ThenBy(l => l.Line).ToArray()))
             .ToArray();
-        var size = options.SizeFor(all.Count);
-        var shares = StratifiedAllocation.Allocate(strata.Select(s => s.Lines.Length).ToArray(), size);
+        var drawn = new List<(RunLine Line, string Folder)>();
+        if (options.Pick is { } pick)
+        {
+            var byKey = all.ToDictionary(l => (l.Source, l.Line));
+            foreach (var c in LinePicker.Pick(LinePicker.ReadCandidates(runDir), pick, options.Seed))
+                drawn.Add((byKey[(c.Source, c.Line)], ScoreBreakdown.FolderOf(Canonical(runDir, c.Source))));
+            if (drawn.Count == 0)
+                throw new InputException(Path.Combine(runDir, RunReader.LinesFileName), "run", "every line of the run has been checked already: nothing to pick");
+        }
+        var shares = options.Pick is null
+            ? StratifiedAllocation.Allocate(strata.Select(s => s.Lines.Length).ToArray(), options.SizeFor(all.Count))
+            : new int[strata.Length];
 
         // One generator walks the strata in name order, so the same seed and run always give the same sample.
         var random = new Random(options.Seed);
-        var drawn = new List<(RunLine Line, string Folder)>();
         for (var s = 0; s < strata.Length; s++)
         {
             var pool = (RunLine[])strata[s].Lines.Clone();
@@ -175,6 +184,7 @@ public static class ProofSampler
             json.WriteNumber("seed", options.Seed);
             if (options.Count is { } count) json.WriteNumber("count", count);
             if (options.Fraction is { } fraction) json.WriteNumber("fraction", fraction);
+            if (options.Pick is { } pick) json.WriteNumber("pick", pick);
             json.WriteNumber("run_lines", runLines);
             json.WriteNumber("drawn", sample.Lines.Count);
             json.WriteNumber("whole_images", sample.Lines.Count(l => l.WholeImage));

@@ -30,4 +30,13 @@ public sealed record LineResult(
 
     /// <summary>Page lines: the entry (ruled row) the line belongs to, counted from 0 down the page.</summary>
     public int? Entry { get; init; }
+
+    /// <summary>
+    /// Null for a machine reading. Set on a line an editor has checked, carried into a new run (<c>adapt</c>): then
+    /// <see cref="Text"/> is the editor's and this the machine's, as <c>correct</c> left them.
+    /// </summary>
+    public string? MachineText { get; init; }
+
+    /// <summary>With <see cref="MachineText"/>: whether the editor marked the line illegible; null otherwise.</summary>
+    public bool? Illegible { get; init; }
 }

@@ -149,7 +149,7 @@ public sealed class Recogniser : IImageRecogniser
         // The ink cue measures lines; a ruled page's rules and columns mislead it (the fixtures' pages read as lying
         // sideways), and read across, a page gives short scraps that can outscore the real reading. A page is
         // compared only with itself upside down; a page lying sideways needs --rotation.
-        if (Lines.TakesAsPage(page, Layout)) return [0, 180];
+        if (Lines.TakesAsPageEitherWay(page, Layout)) return [0, 180];
         if (OrientationEstimator.Guess(page, Lines.Tuning) is not { } guess) return [0];
         return guess.AxisMargin >= Orientation.SureAxisMargin ? [0, 180]
             : guess.AxisMargin <= -Orientation.SureAxisMargin ? [90, 270]

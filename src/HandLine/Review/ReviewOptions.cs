@@ -10,6 +10,15 @@ public sealed record ReviewOptions
     public bool All { get; init; }
 
     /// <summary>
+    /// Show only the lines worth correcting first (<see cref="Proof.LinePicker"/>), at most this many; null shows
+    /// the flagged lines (or all with <see cref="All"/>).
+    /// </summary>
+    public int? Pick { get; init; }
+
+    /// <summary>Seed of <see cref="Pick"/>'s tie-breaking: the same run and seed give the same lines.</summary>
+    public int Seed { get; init; } = 1;
+
+    /// <summary>
     /// A character whose confidence is below this is marked doubtful. 0.75 is a rule of thumb chosen by eye on the
     /// demo runs (common practice, no source): lower marks only the worst letters, higher marks most of a poor line.
     /// </summary>
@@ -22,6 +31,10 @@ public sealed record ReviewOptions
     public void Validate()
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(ImagesRoot);
+        if (Pick is < 1)
+            throw new ArgumentException($"The number of lines to pick must be at least 1, not {Pick}.");
+        if (Pick is not null && All)
+            throw new ArgumentException("Give either --pick or --all, not both.");
         if (!(DoubtBelow >= 0 && DoubtBelow <= 1))
             throw new ArgumentException($"The doubt threshold must be between 0 and 1, not {DoubtBelow}.");
     }

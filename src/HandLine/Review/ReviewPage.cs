@@ -5,6 +5,7 @@ using System.Text;
 using System.Text.Encodings.Web;
 using System.Text.Json;
 using System.Text.Json.Nodes;
+using HandLine.Proof;
 
 namespace HandLine.Review;
 
@@ -29,7 +30,10 @@ public static class ReviewPage
             throw new InputException(options.ImagesRoot, "review", "no such images folder (--images)");
 
         var records = RunRecords.Read(runDir);
-        var chosen = records.Where(r => options.All || r.Flagged)
+        var picked = options.Pick is { } pick
+            ? LinePicker.Pick(LinePicker.ReadCandidates(runDir), pick, options.Seed).Select(c => (c.Source, c.Line)).ToHashSet()
+            : null;
+        var chosen = records.Where(r => picked?.Contains((r.Source, r.Line)) ?? (options.All || r.Flagged))
             .OrderBy(r => r.Confidence).ThenBy(r => r.Source, StringComparer.Ordinal).ThenBy(r => r.Line)
             .ToArray();
 
@@ -51,7 +55,7 @@ public static class ReviewPage
             ["lines"] = new JsonArray(chosen.Select(r => (JsonNode)Line(r, uris[r], wholePages.Contains(r), options.DoubtBelow)).ToArray()),
         };
         var runName = Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(runDir)));
-        var html = Html(runName, chosen.Length, records.Count, options.All, Island(data.ToJsonString(DataJson)));
+        var html = Html(runName, chosen.Length, records.Count, options.All ? "all lines" : picked is not null ? "the lines worth correcting first" : "the flagged lines", Island(data.ToJsonString(DataJson)));
         return new ReviewPageContent(html, chosen.Length, records.Count, chosen.Count(r => uris[r] is null));
     }
 
@@ -122,7 +126,7 @@ public static class ReviewPage
         return Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(text.ToString())))[..16];
     }
 
-    private static string Html(string runName, int shown, int runLines, bool all, string json)
+    private static string Html(string runName, int shown, int runLines, string which, string json)
     {
         var html = new StringBuilder();
         html.Append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n")
@@ -132,7 +136,7 @@ public static class ReviewPage
             .Append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n")
             .Append("<title>Review: ").Append(E(runName)).Append("</title>\n<style>").Append(Style).Append("</style>\n</head>\n<body>\n")
             .Append("<header>\n<h1>Review: <span id=\"run-name\">").Append(E(runName)).Append("</span></h1>\n")
-            .Append(CultureInfo.InvariantCulture, $"<p>{shown} of the run's {runLines} lines ({(all ? "all lines" : "the flagged lines")}), lowest confidence first. Your work is kept in this browser as you go; <strong>Export corrections</strong> saves it as a file for <code>handline correct</code>.</p>\n")
+            .Append(CultureInfo.InvariantCulture, $"<p>{shown} of the run's {runLines} lines ({which}), lowest confidence first. Your work is kept in this browser as you go; <strong>Export corrections</strong> saves it as a file for <code>handline correct</code>.</p>\n")
             .Append("<div class=\"bar\"><span id=\"progress\" role=\"status\" aria-live=\"polite\"></span> <button type=\"button\" id=\"export\">Export corrections <kbd>d</kbd></button></div>\n")
             .Append("<details id=\"keys\" open>\n<summary>Keys</summary>\n<dl>\n")
             .Append("<dt><kbd>j</kbd> or <kbd>↓</kbd></dt><dd>next line</dd>\n")

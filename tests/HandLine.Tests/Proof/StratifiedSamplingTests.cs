@@ -45,6 +45,20 @@ public sealed class StratifiedSamplingTests
     }
 
     [Fact]
+    public void PickCropsTheLinesWorthCorrectingFirstTheSameForASeed()
+    {
+        using var run = new ProofRunFixture(Volumes);
+        ProofSample Draw(string name) =>
+            ProofSampler.Draw(run.Run, run.Out(name), new ProofSampleOptions { Pick = 12, Seed = 5, ImagesRoot = run.Images });
+        var a = Draw("a");
+        Assert.Equal(12, a.Lines.Count);
+        Assert.Equal(a.Lines.Select(l => l.Source), Draw("b").Lines.Select(l => l.Source));
+        Assert.Equal(File.ReadAllText(run.Out("a/keying.tsv")), File.ReadAllText(run.Out("b/keying.tsv")));
+        Assert.Contains("\"pick\": 12", File.ReadAllText(run.Out("a/sample.json")));
+        Assert.Throws<ArgumentException>(() => ProofSampler.Draw(run.Run, run.Out("c"), new ProofSampleOptions { Pick = 3, Count = 3, Seed = 1, ImagesRoot = run.Images }));
+    }
+
+    [Fact]
     public void TheKeyingManifestHasEmptyTranscriptsAndTheMachineTextIsKeptApart()
     {
         using var run = new ProofRunFixture(Volumes);

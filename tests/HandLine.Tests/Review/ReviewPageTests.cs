@@ -72,4 +72,17 @@ public sealed class ReviewPageTests : IDisposable
         File.Delete(Path.Combine(_run.Images, "ledger/002.png"));
         Assert.Equal(1, Page().MissingImages);
     }
+
+    [Fact]
+    public void Pick_lists_the_lines_worth_correcting_first_flagged_or_not()
+    {
+        var page = ReviewPage.Build(_run.Run, new ReviewOptions { ImagesRoot = _run.Images, Pick = 2, Seed = 4 });
+        Assert.Equal(2, page.Lines);
+        Assert.Contains("(the lines worth correcting first)", page.Html);
+        // The two least sure lines (0.12 and 0.31); the same seed gives the same page.
+        Assert.Contains("ledger/002.png", page.Html);
+        Assert.DoesNotContain("register/014.png", page.Html);
+        Assert.Equal(page.Html, ReviewPage.Build(_run.Run, new ReviewOptions { ImagesRoot = _run.Images, Pick = 2, Seed = 4 }).Html);
+        Assert.Throws<ArgumentException>(() => ReviewPage.Build(_run.Run, new ReviewOptions { ImagesRoot = _run.Images, Pick = 2, All = true }));
+    }
 }
