@@ -84,14 +84,5 @@ public sealed class RecogniserOrientationTests : IClassFixture<RecogniserOrienta
     private IReadOnlyList<LineResult> Read(GrayImage image, OrientationOptions orientation) =>
         new Recogniser(_model.Model, orientation: orientation).Read(Png(image), "line.png", "line.png");
 
-    private static byte[] Png(GrayImage image)
-    {
-        using var png = new Image<L8>(image.Width, image.Height);
-        for (var y = 0; y < image.Height; y++)
-            for (var x = 0; x < image.Width; x++)
-                png[x, y] = new L8((byte)Math.Clamp(Math.Round(image[x, y] * 255), 0, 255));
-        using var buffer = new MemoryStream();
-        png.SaveAsPng(buffer);
-        return buffer.ToArray();
-    }
+    private static byte[] Png(GrayImage image) => PngEncoder.Encode(image);
 }
