@@ -2,8 +2,6 @@ using HandLine.Imaging;
 using HandLine.Model;
 using HandLine.Recognition;
 using HandLine.Tests.Imaging;
-using SixLabors.ImageSharp;
-using SixLabors.ImageSharp.PixelFormats;
 
 namespace HandLine.Tests.Recognition;
 
