@@ -57,7 +57,7 @@ internal static class TuneDecodeCommand
                 var report = Scorer.Score(prepared.Select((p, i) => new ScoreItem(p.Source.Source, truthOf[p.Source.FullPath],
                     string.Join(' ', decoded[i].Select(h => h.Text).Where(t => t.Length > 0)))));
                 var calibration = Calibrator.Evaluate(prepared.SelectMany((p, i) => CalibrationInput.ForSource(p.Source.Source, truthOf[p.Source.FullPath],
-                    decoded[i].Select((h, k) => new CalibrationInput.RunLine(k, h.Text, h.Confidence, h.Chars.Select(c => c.Confidence).ToArray())))).ToArray());
+                    decoded[i])).ToArray());
                 Console.WriteLine(string.Create(ci,
                     $"{Describe(options),-44} {100 * ErrorRate.Of(report.CharCounts),7:F2} {100 * ErrorRate.Of(report.WordCounts),7:F2} {calibration.Characters.Ece,9:F4} {calibration.Lines.Ece,9:F4} {1000 * seconds / lines,15:F3}"));
             }

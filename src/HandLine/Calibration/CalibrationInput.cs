@@ -1,4 +1,5 @@
 using System.Text.Json;
+using HandLine.Decoding;
 using HandLine.Formats;
 using HandLine.Scoring;
 
@@ -43,6 +44,13 @@ public static class CalibrationInput
             lines.AddRange(ForSource(entry.RelativePath, entry.Text, runLines));
         }
         return new Result(lines, unmatched, unmatchedErrors);
+    }
+
+    /// <summary>The same for decoder output held in memory: the hypotheses of one source's lines, top to bottom.</summary>
+    public static IReadOnlyList<CalibrationLine> ForSource(string id, string truth, IReadOnlyList<Hypothesis> lines)
+    {
+        ArgumentNullException.ThrowIfNull(lines);
+        return ForSource(id, truth, lines.Select((h, k) => new RunLine(k, h.Text, h.Confidence, h.Chars.Select(c => c.Confidence).ToArray())));
     }
 
     /// <summary>Aligns one source's recognised lines (joined with one space) to its truth; one result per line.</summary>

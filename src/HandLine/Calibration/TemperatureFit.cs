@@ -60,8 +60,7 @@ public static class TemperatureFit
         foreach (var source in sources)
         {
             var decoded = source.Lines.Select(p => decoder.Decode(p.Tempered(temperature))).ToArray();
-            var lines = CalibrationInput.ForSource(source.Id, source.Truth, decoded.Select((h, k) =>
-                new CalibrationInput.RunLine(k, h.Text, h.Confidence, h.Chars.Select(c => c.Confidence).ToArray())));
+            var lines = CalibrationInput.ForSource(source.Id, source.Truth, decoded);
             foreach (var line in lines) outcomes.AddRange(line.CharConfidences.Zip(line.CharCorrect));
         }
         return new Point(temperature, Nll(outcomes), ReliabilityTable.Build(outcomes, Calibrator.DefaultBins).Ece, outcomes.Count);
