@@ -23,10 +23,10 @@ internal static class TrainCommand
         var threads = new Option<int>("--threads") { Description = "CPU threads for the network (0 = all)" };
         var resume = new Option<bool>("--resume") { Description = "Continue from the checkpoint beside --out" };
         var lr = new Option<double>("--learning-rate") { DefaultValueFactory = _ => 1e-3, Description = "Adam step size" };
-        var hidden = new Option<int>("--hidden") { DefaultValueFactory = _ => 128, Description = "LSTM units per direction (new models)" };
+        var hidden = new Option<int>("--hidden") { DefaultValueFactory = _ => 128, Description = "LSTM units per direction (new models; with --from, a wider warm start)" };
         var layers = new Option<int>("--layers") { DefaultValueFactory = _ => 2, Description = "LSTM layers (new models)" };
-        var height = new Option<int>("--line-height") { DefaultValueFactory = _ => 40, Description = "Normalised line height (new models)" };
-        var stride = new Option<int>("--frame-stride") { DefaultValueFactory = _ => 2, Description = "Columns per frame (new models)" };
+        var height = new Option<int>("--line-height") { DefaultValueFactory = _ => 40, Description = "Normalised line height (new models; with --from, a warm start at this height)" };
+        var stride = new Option<int>("--frame-stride") { DefaultValueFactory = _ => 2, Description = "Columns per frame (new models; with --from, a warm start with this stride)" };
         var geometric = new Option<bool>("--geometric") { Description = "Add geometric column features (new models)" };
         var convolution = new Option<bool>("--convolution") { Description = "Two 3x3 convolution layers ahead of the LSTM (new models; pixel columns only)" };
         var noAugment = new Option<bool>("--no-augment") { Description = "Train on the stored lines as they are, without fresh distortions each epoch" };
@@ -69,6 +69,19 @@ internal static class TrainCommand
                 }
                 var loaded = ModelFile.Load(fromPath);
                 fromId = loaded.Id;
+                // --line-height, --frame-stride or --hidden given with --from: a warm start of that shape, for
+                // comparing input sizes and capacities (LineModel.Reshaped).
+                int Given(Option<int> option, int current) => parse.GetResult(option) is { Implicit: false } ? parse.GetValue(option) : current;
+                var features = loaded.Features with { LineHeight = Given(height, loaded.Features.LineHeight), FrameStride = Given(stride, loaded.Features.FrameStride) };
+                var network = loaded.Header.Network with { Hidden = Given(hidden, loaded.Header.Network.Hidden) };
+                if (features != loaded.Features || network != loaded.Header.Network)
+                {
+                    Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                        $"reshaping {fromPath}: line height {loaded.Features.LineHeight} -> {features.LineHeight}, frame stride {loaded.Features.FrameStride} -> {features.FrameStride}, LSTM width {loaded.Header.Network.Hidden} -> {network.Hidden}"));
+                    var reshaped = loaded.Reshaped(features, network, options.Seed);
+                    loaded.Dispose();
+                    loaded = reshaped;
+                }
                 var missing = loaded.Charset.MissingSymbols(trainTexts);
                 if (missing.Count == 0) return loaded;
                 ReportGrowth(missing);

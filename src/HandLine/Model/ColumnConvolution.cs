@@ -33,7 +33,10 @@ public sealed class ColumnConvolution : nn.Module<Tensor, Tensor, Tensor>
     }
 
     /// <summary>Values per output frame for lines of the given height.</summary>
-    public static int OutputSize(int lineHeight) => Channels * (lineHeight / 2 / 2);
+    public static int OutputSize(int lineHeight) => Channels * OutputRows(lineHeight);
+
+    /// <summary>Rows per output frame (each channel's), after the two height-halving pools.</summary>
+    public static int OutputRows(int lineHeight) => lineHeight / 2 / 2;
 
     /// <param name="frames">[T, B, S·H]: each frame is S columns of H values, top to bottom.</param>
     /// <param name="lengths">[B] int64 frame counts.</param>

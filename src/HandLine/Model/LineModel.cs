@@ -72,6 +72,45 @@ public sealed class LineModel : IDisposable
     }
 
     /// <summary>
+    /// A warm start of another line height, frame stride or LSTM width from this model, for comparing input sizes
+    /// and capacities (see <see cref="LineNetwork.CopyReshaped"/>): same character set, layers and front end;
+    /// the header takes the new shape and drops the validation CER and temperature, which measured this model.
+    /// </summary>
+    /// <exception cref="ArgumentException">The model has no convolutional front end, the LSTM would shrink, or a
+    /// setting other than line height, frame stride and width differs.</exception>
+    public LineModel Reshaped(FeatureConfig features, NetworkConfig network, int seed)
+    {
+        ArgumentNullException.ThrowIfNull(features);
+        ArgumentNullException.ThrowIfNull(network);
+        features.Validate();
+        network.Validate(features);
+        if (features with { LineHeight = Features.LineHeight, FrameStride = Features.FrameStride } != Features)
+            throw new ArgumentException("only the line height and frame stride of the input can change");
+        if (network with { Hidden = Header.Network.Hidden } != Header.Network)
+            throw new ArgumentException("only the LSTM width can change (layers, dropout and front end stay)");
+        if (!network.Convolution) throw new ArgumentException("reshaping needs the convolutional front end");
+        if (network.Hidden < Header.Network.Hidden)
+            throw new ArgumentException($"the LSTM can only grow ({Header.Network.Hidden} -> {network.Hidden} units)");
+        LineNetwork reshaped;
+        lock (TorchRuntime.RandomLock)
+        {
+            TorchRuntime.Seed(seed);
+            reshaped = new LineNetwork(features, network, Charset.ClassCount);
+        }
+        reshaped.CopyReshaped(Network, ColumnConvolution.OutputRows(Features.LineHeight),
+            ColumnConvolution.OutputRows(features.LineHeight), Header.Network.Hidden, network.Hidden);
+        var header = Header with
+        {
+            Features = features,
+            Network = network,
+            ValidationCer = null,
+            Temperature = null,
+            TemperatureFit = null,
+        };
+        return new LineModel(header, Charset, reshaped, "unsaved");
+    }
+
+    /// <summary>
     /// Saves with an updated header; returns the new model id. The temperature goes back to 1: it was fitted to
     /// the weights before this training.
     /// </summary>
