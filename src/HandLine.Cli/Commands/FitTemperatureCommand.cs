@@ -56,12 +56,18 @@ internal static class FitTemperatureCommand
             foreach (var p in fit.Tried)
                 Console.WriteLine(string.Create(ci, $"{p.Temperature * current,12:0.####} {p.CharNll,9:F4} {p.CharEce,9:F4}{(p == fit.Best ? "  best" : "")}"));
             var temperature = Math.Round(fit.Best.Temperature * current, 4);
+            // The flag threshold for this model, chosen on the same lines at the fitted temperature (transcribe's
+            // default when no --flag-below is given).
+            var flag = Calibrator.ChooseThreshold(TemperatureFit.Lines(sources, new LineDecoder(lineModel.Charset, options), fit.Best.Temperature), Calibrator.DefaultCatch);
             var record = new TemperatureRecord(Path.GetFileName(truthPath), sources.Length, fit.Best.Characters,
                 options.UsesBeam ? $"beam {options.Beam}" : "greedy", Math.Round(fit.AsGiven.CharEce, 6), Math.Round(fit.Best.CharEce, 6),
-                DateTime.UtcNow.ToString("O"));
+                DateTime.UtcNow.ToString("O"), flag.FlagBelow, Math.Round(flag.CaughtShare, 4), Math.Round(flag.FlaggedShare, 4));
             var id = lineModel.SaveWithTemperature(parse.GetValue(output)!, temperature, record);
             Console.WriteLine(string.Create(ci,
-                $"temperature {temperature:0.####}: character calibration error {fit.AsGiven.CharEce:F4} -> {fit.Best.CharEce:F4} on these lines; wrote {parse.GetValue(output)} (model {id})"));
+                $"temperature {temperature:0.####}: character calibration error {fit.AsGiven.CharEce:F4} -> {fit.Best.CharEce:F4} on these lines"));
+            Console.WriteLine(string.Create(ci,
+                $"flag threshold {flag.FlagBelow:0.#####}: flags {flag.FlaggedShare:P1} of these lines and catches {flag.CaughtShare:P1} of their character errors (transcribe's default for this model)"));
+            Console.WriteLine($"wrote {parse.GetValue(output)} (model {id})");
             return ExitCodes.Ok;
         }));
         return command;

@@ -17,14 +17,13 @@ internal static class TranscribeCommand
         };
         var outDir = new Option<string>("--out") { Description = "Folder for text files and reports", Required = true };
         var model = new Option<string?>("--model") { Description = "Model file (default: the bundled model)" };
-        var flagBelow = new Option<double>("--flag-below")
+        var flagBelow = new Option<double?>("--flag-below")
         {
-            Description = "Flag lines whose confidence is below this, for review (0..1)",
-            DefaultValueFactory = _ => TranscribeOptions.DefaultFlagBelow,
+            Description = $"Flag lines whose confidence is below this, for review (0..1; default: the model's own, fitted with its temperature, else {TranscribeOptions.DefaultFlagBelow})",
         };
         flagBelow.Validators.Add(r =>
         {
-            var v = r.GetValueOrDefault<double>();
+            var v = r.GetValueOrDefault<double?>();
             if (v is < 0 or > 1) r.AddError("--flag-below must be between 0 and 1");
         });
 

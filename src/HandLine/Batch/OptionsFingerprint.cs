@@ -15,11 +15,14 @@ namespace HandLine.Batch;
 /// </summary>
 public static class OptionsFingerprint
 {
+    /// <param name="options">The run's settings, with the flag threshold it resolved (<see cref="TranscribeOptions.FlagBelowFor"/>).</param>
     public static string Of(TranscribeOptions options)
     {
         ArgumentNullException.ThrowIfNull(options);
+        if (options.FlagBelow is not { } flagBelow)
+            throw new ArgumentException("the flag threshold must be resolved before hashing the settings", nameof(options));
         // Auto layout adds nothing, so runs made before layouts existed keep their hash and resume.
-        var json = JsonSerializer.SerializeToUtf8Bytes(new ResultSettings(options.FlagBelow, options.Decoding,
+        var json = JsonSerializer.SerializeToUtf8Bytes(new ResultSettings(flagBelow, options.Decoding,
             options.Orientation ?? OrientationOptions.Auto, options.Layout == LayoutMode.Auto ? null : options.Layout.ToString()));
         return Convert.ToHexStringLower(SHA256.HashData(json))[..16];
     }

@@ -11,15 +11,25 @@ namespace HandLine.Batch;
 public sealed record TranscribeOptions(
     string OutDir,
     string ModelPath,
-    double FlagBelow = TranscribeOptions.DefaultFlagBelow,
+    double? FlagBelow = null,
     InputLimits? Limits = null,
     DecodingOptions? Decoding = null,
     OrientationOptions? Orientation = null,
     LayoutMode Layout = LayoutMode.Auto,
     bool Alto = false)
 {
-    /// <summary>Lines whose confidence is below this are flagged for review (see <see cref="Recogniser.DefaultFlagBelow"/>).</summary>
+    /// <summary>
+    /// Lines whose confidence is below this are flagged for review when neither <see cref="FlagBelow"/> nor the
+    /// model (<see cref="LineModel.FittedFlagBelow"/>) gives a threshold (see <see cref="Recogniser.DefaultFlagBelow"/>).
+    /// </summary>
     public const double DefaultFlagBelow = Recogniser.DefaultFlagBelow;
+
+    /// <summary>The threshold a run with this model uses: the one given, else the model's own, else the default.</summary>
+    public double FlagBelowFor(LineModel model)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        return FlagBelow ?? model.FittedFlagBelow ?? DefaultFlagBelow;
+    }
 }
 
 /// <summary>Counts for the run summary.</summary>
@@ -56,14 +66,15 @@ public static class TranscribeRun
         var started = DateTime.UtcNow;
         Directory.CreateDirectory(options.OutDir);
         using var model = ModelFile.Load(options.ModelPath);
-        var recogniser = new Recogniser(model, options.Limits, options.Decoding, options.FlagBelow, orientation: options.Orientation)
+        var flagBelow = options.FlagBelowFor(model);
+        var recogniser = new Recogniser(model, options.Limits, options.Decoding, flagBelow, orientation: options.Orientation)
         {
             Layout = options.Layout,
         };
         var (sources, inputErrors) = InputSet.Expand(inputs);
 
         var job = new BatchJob(options.OutDir, sources, inputErrors, recogniser,
-            RunSettings.Of(recogniser, options.FlagBelow, options.ModelPath), OptionsFingerprint.Of(options), batch, started, clock);
+            RunSettings.Of(recogniser, flagBelow, options.ModelPath), OptionsFingerprint.Of(options with { FlagBelow = flagBelow }), batch, started, clock);
         var c = BatchRunner.Run(job, new BatchProgress(progress, batch.Progress, batch), cancel);
         if (options.Alto && !c.Cancelled)
             AltoWriter.WriteRun(options.OutDir, sources, model.Id);

@@ -54,16 +54,20 @@ public static class TemperatureFit
     /// <summary>Decodes every line at <paramref name="temperature"/> and scores its characters.</summary>
     public static Point Evaluate(IReadOnlyList<Source> sources, LineDecoder decoder, double temperature)
     {
+        var outcomes = Lines(sources, decoder, temperature).SelectMany(l => l.CharConfidences.Zip(l.CharCorrect)).ToArray();
+        return new Point(temperature, Nll(outcomes), ReliabilityTable.Build(outcomes, Calibrator.DefaultBins).Ece, outcomes.Length);
+    }
+
+    /// <summary>Every line decoded at <paramref name="temperature"/>, aligned to its source's truth.</summary>
+    public static IReadOnlyList<CalibrationLine> Lines(IReadOnlyList<Source> sources, LineDecoder decoder, double temperature)
+    {
         ArgumentNullException.ThrowIfNull(sources);
         ArgumentNullException.ThrowIfNull(decoder);
-        var outcomes = new List<(double Confidence, bool Correct)>();
+        var lines = new List<CalibrationLine>();
         foreach (var source in sources)
-        {
-            var decoded = source.Lines.Select(p => decoder.Decode(p.Tempered(temperature))).ToArray();
-            var lines = CalibrationInput.ForSource(source.Id, source.Truth, decoded);
-            foreach (var line in lines) outcomes.AddRange(line.CharConfidences.Zip(line.CharCorrect));
-        }
-        return new Point(temperature, Nll(outcomes), ReliabilityTable.Build(outcomes, Calibrator.DefaultBins).Ece, outcomes.Count);
+            lines.AddRange(CalibrationInput.ForSource(source.Id, source.Truth,
+                source.Lines.Select(p => decoder.Decode(p.Tempered(temperature))).ToArray()));
+        return lines;
     }
 
     /// <summary>Mean of −ln p(outcome) with p = confidence for a hit and 1 − confidence for a miss.</summary>

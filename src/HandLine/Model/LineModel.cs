@@ -135,6 +135,9 @@ public sealed class LineModel : IDisposable
         return ModelFile.Save(path, Header with { Temperature = temperature, TemperatureFit = fit }, Network);
     }
 
+    /// <summary>The flag threshold fitted with the temperature (see <see cref="TemperatureRecord"/>), if any.</summary>
+    public double? FittedFlagBelow => Header.TemperatureFit?.FlagBelow;
+
     /// <summary>The temperature the outputs are divided by (see <see cref="Posteriors.Tempered"/>).</summary>
     public double Temperature => Header.Temperature ?? 1.0;
 

@@ -14,7 +14,13 @@ public sealed record TrainingRecord(
     [property: JsonPropertyName("minutes")] double Minutes,
     [property: JsonPropertyName("from_model")] string? FromModel);
 
-/// <summary>How a model's temperature was fitted: on which lines, and the calibration before and after.</summary>
+/// <summary>
+/// How a model's temperature was fitted: on which lines, and the calibration before and after. With it, the line
+/// threshold chosen on the same lines at that temperature (<c>flag_below</c>: the fewest flagged lines that hold
+/// 90 % of the character errors; <c>flag_catches</c> the share of errors it caught there, <c>flag_flags</c> the
+/// share of lines it flagged), which <c>transcribe</c> uses when no <c>--flag-below</c> is given: a threshold
+/// chosen for one model means little for another, whose confidences are spread differently.
+/// </summary>
 public sealed record TemperatureRecord(
     [property: JsonPropertyName("lines_data")] string LinesData,
     [property: JsonPropertyName("lines")] int Lines,
@@ -22,7 +28,10 @@ public sealed record TemperatureRecord(
     [property: JsonPropertyName("decoding")] string Decoding,
     [property: JsonPropertyName("char_ece_before")] double CharEceBefore,
     [property: JsonPropertyName("char_ece_after")] double CharEceAfter,
-    [property: JsonPropertyName("fitted_utc")] string FittedUtc);
+    [property: JsonPropertyName("fitted_utc")] string FittedUtc,
+    [property: JsonPropertyName("flag_below"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] double? FlagBelow = null,
+    [property: JsonPropertyName("flag_catches"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] double? FlagCatches = null,
+    [property: JsonPropertyName("flag_flags"), JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)] double? FlagFlags = null);
 
 /// <summary>
 /// The JSON header of a model file. <see cref="Temperature"/> divides the network's outputs before decoding

@@ -18,6 +18,33 @@ public sealed class TranscribeRunTests : IDisposable
     private string SmallModel() => BatchTestSupport.SmallModel(_dir);
 
     [Fact]
+    public void WithoutAFlagThresholdTheModelsOwnIsUsed_AndAGivenOneWins()
+    {
+        // A model whose fit chose 0.2 (and one with no fit, which falls back to the default): each line is flagged
+        // by the threshold the run reports in summary.json.
+        var plain = SmallModel();
+        var fitted = Path.Combine(_dir, "fitted.hlm");
+        using (var model = HandLine.Model.ModelFile.Load(plain))
+            model.SaveWithTemperature(fitted, 1.0, new HandLine.Model.TemperatureRecord("v.tsv", 10, 100, "beam 8", 0.1, 0.02,
+                "2026-01-01T00:00:00Z", FlagBelow: 0.2, FlagCatches: 0.9, FlagFlags: 0.5));
+        using (var loaded = HandLine.Model.ModelFile.Load(fitted))
+            Assert.Equal(0.2, loaded.FittedFlagBelow);
+
+        foreach (var (name, model, given, expected) in new[]
+                 {
+                     ("own", fitted, (double?)null, 0.2), ("given", fitted, 0.9, 0.9), ("none", plain, null, TranscribeOptions.DefaultFlagBelow),
+                 })
+        {
+            var outDir = Path.Combine(_dir, name);
+            TranscribeRun.Run([Path.Combine(Demo, "lines.tsv")], new TranscribeOptions(outDir, model, given));
+            using var s = JsonDocument.Parse(File.ReadAllText(Path.Combine(outDir, "summary.json")));
+            Assert.Equal(expected, s.RootElement.GetProperty("flag_below").GetDouble());
+            foreach (var line in File.ReadAllLines(Path.Combine(outDir, "lines.jsonl")).Select(l => JsonDocument.Parse(l).RootElement))
+                Assert.Equal(line.GetProperty("confidence").GetDouble() < expected, line.GetProperty("flagged").GetBoolean());
+        }
+    }
+
+    [Fact]
     public void TranscribingTheDemoManifestWritesEveryOutput()
     {
         var outDir = Path.Combine(_dir, "out");
