@@ -102,6 +102,9 @@ public sealed class LinePreparer
                || (layout == LayoutMode.Auto && _pages.LooksLikePage(image) && _pages.LooksLikePage(image.Height, image.Width));
     }
 
+    /// <summary>Whether a page's text lines run across it or down it (<see cref="PageAnalyser.GuessAxis"/>).</summary>
+    public PageAxisGuess? GuessPageAxis(GrayImage page) => _pages.GuessAxis(page);
+
     /// <summary>
     /// Stages 2 to 4 for one loaded image taken as <paramref name="layout"/> says (auto: <see cref="PageAnalyser.LooksLikePage"/>):
     /// as lines, the lines of <see cref="PreparePage(GrayImage, string)"/>; as a page, the lines the page stage
