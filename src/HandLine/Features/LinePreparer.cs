@@ -102,8 +102,16 @@ public sealed class LinePreparer
                || (layout == LayoutMode.Auto && _pages.LooksLikePage(image) && _pages.LooksLikePage(image.Height, image.Width));
     }
 
-    /// <summary>Whether a page's text lines run across it or down it (<see cref="PageAnalyser.GuessAxis"/>).</summary>
-    public PageAxisGuess? GuessPageAxis(GrayImage page) => _pages.GuessAxis(page);
+    /// <summary>
+    /// Whether a page's text lines run across it or down it (<see cref="PageAnalyser.GuessAxis"/>); null for an image
+    /// that is no page by its size either way (a line image taken as a page with `--layout page`: the cue's squares
+    /// would be smaller than its letters) and for a page without writing.
+    /// </summary>
+    public PageAxisGuess? GuessPageAxis(GrayImage page)
+    {
+        ArgumentNullException.ThrowIfNull(page);
+        return TakesAsPageEitherWay(page, LayoutMode.Auto) ? _pages.GuessAxis(page) : null;
+    }
 
     /// <summary>
     /// Stages 2 to 4 for one loaded image taken as <paramref name="layout"/> says (auto: <see cref="PageAnalyser.LooksLikePage"/>):

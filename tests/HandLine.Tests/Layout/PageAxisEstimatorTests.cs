@@ -1,7 +1,9 @@
+using HandLine.Features;
 using HandLine.Imaging;
 using HandLine.Layout;
 using HandLine.Recognition;
 using HandLine.Synthesis;
+using HandLine.Tests.Imaging;
 
 namespace HandLine.Tests.Layout;
 
@@ -46,6 +48,17 @@ public sealed class PageAxisEstimatorTests
         var analyser = new PageAnalyser();
         Assert.Null(analyser.GuessAxis(GrayImage.Filled(700, 900, 0.95f)));
         Assert.Null(analyser.GuessAxis(TurnedPages.RuledSheet([])));
+    }
+
+    [Fact]
+    public void OnlyAnImageOfAPagesSizeEitherWayIsJudgedAsAPage()
+    {
+        // A line image taken as a page (--layout page) keeps the two readings of its own axis: the cue's squares
+        // would be smaller than its letters.
+        var preparer = new LinePreparer(new FeatureConfig());
+        var sheet = TurnedPages.RuledSheet(["Paid the carrier 4s 6d", "Wages to Lady Day"]);
+        Assert.NotNull(preparer.GuessPageAxis(sheet));
+        Assert.Null(preparer.GuessPageAxis(ImagingTestSupport.Render("Paid the carrier 4s 6d")));
     }
 
     [Fact]

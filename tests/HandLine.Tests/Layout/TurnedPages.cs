@@ -1,8 +1,8 @@
 using HandLine.Imaging;
+using HandLine.Tests.Imaging;
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
 using SixLabors.ImageSharp.Processing;
-using HandLine.Tests.Imaging;
 
 namespace HandLine.Tests.Layout;
 
