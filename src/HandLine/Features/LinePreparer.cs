@@ -103,6 +103,17 @@ public sealed class LinePreparer
     }
 
     /// <summary>
+    /// Whether a page's text lines run across it or down it (<see cref="PageAnalyser.GuessAxis"/>); null for an image
+    /// that is no page by its size either way (a line image taken as a page with `--layout page`: the cue's squares
+    /// would be smaller than its letters) and for a page without writing.
+    /// </summary>
+    public PageAxisGuess? GuessPageAxis(GrayImage page)
+    {
+        ArgumentNullException.ThrowIfNull(page);
+        return TakesAsPageEitherWay(page, LayoutMode.Auto) ? _pages.GuessAxis(page) : null;
+    }
+
+    /// <summary>
     /// Stages 2 to 4 for one loaded image taken as <paramref name="layout"/> says (auto: <see cref="PageAnalyser.LooksLikePage"/>):
     /// as lines, the lines of <see cref="PreparePage(GrayImage, string)"/>; as a page, the lines the page stage
     /// (<see cref="PageAnalyser.Analyse"/>) finds, in reading order, each with its place on the page (box, column, entry).

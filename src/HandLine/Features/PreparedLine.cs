@@ -12,7 +12,10 @@ public sealed record PreparedLine(NormalisedLine Line, FeatureSequence Features)
     /// <summary>How the image was taken: "line" (a line image or a strip of lines) or "page" (a whole page).</summary>
     public string Layout { get; init; } = "line";
 
-    /// <summary>Page lines: the line's box in the (upright) page's pixels.</summary>
+    /// <summary>
+    /// Page lines: the line's box in the page's pixels (as the page was given to <see cref="LinePreparer.PrepareImage"/>;
+    /// the recogniser maps it back into the image's own pixels when it turned the image).
+    /// </summary>
     public LineBox? Box { get; init; }
 
     /// <summary>Page lines: the column the line stands in.</summary>

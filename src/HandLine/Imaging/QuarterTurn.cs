@@ -1,3 +1,5 @@
+using HandLine.Formats;
+
 namespace HandLine.Imaging;
 
 /// <summary>
@@ -19,6 +21,24 @@ public static class QuarterTurn
         ArgumentNullException.ThrowIfNull(image);
         if (!IsRotation(rotation)) throw new ArgumentOutOfRangeException(nameof(rotation), "must be 0, 90, 180 or 270");
         return Clockwise(image, (360 - rotation) % 360);
+    }
+
+    /// <summary>
+    /// Where a box of a <paramref name="width"/> × <paramref name="height"/> image lies once the image is turned
+    /// <paramref name="degrees"/> clockwise (as <see cref="Clockwise"/> turns it): the box of an upright page's line
+    /// mapped back into the image as it was given.
+    /// </summary>
+    public static LineBox TurnBox(LineBox box, int width, int height, int degrees)
+    {
+        if (!IsRotation(degrees)) throw new ArgumentOutOfRangeException(nameof(degrees), "must be 0, 90, 180 or 270");
+        // Clockwise by 90, pixel (x, y) goes to (height-1-y, x); by 270, to (y, width-1-x).
+        return degrees switch
+        {
+            90 => new LineBox(height - box.Y - box.Height, box.X, box.Height, box.Width),
+            180 => new LineBox(width - box.X - box.Width, height - box.Y - box.Height, box.Width, box.Height),
+            270 => new LineBox(box.Y, width - box.X - box.Width, box.Height, box.Width),
+            _ => box,
+        };
     }
 
     /// <summary>The image turned <paramref name="degrees"/> (0, 90, 180 or 270) clockwise.</summary>

@@ -43,6 +43,9 @@ public sealed class PageAnalyser
     /// <summary>The same test on an image's size alone (so a caller can ask about the image turned a quarter).</summary>
     public bool LooksLikePage(int width, int height) => height >= _options.PageMinHeight && height * 2 >= width;
 
+    /// <summary>Whether the page's text lines run across it or down it (<see cref="PageAxisEstimator"/>); null when it holds no writing.</summary>
+    public PageAxisGuess? GuessAxis(GrayImage page) => PageAxisEstimator.Guess(page, _options);
+
     /// <summary>The page's lines, in reading order; none for a blank page.</summary>
     public PageLayout Analyse(GrayImage page)
     {
@@ -58,35 +61,9 @@ public sealed class PageAnalyser
         flat = null!; // the page's copy is not needed past here; let a large page's memory go
         int uw = upright.Width, uh = upright.Height;
 
-        // Paper is most of a page: its level is the median. Ink is the darkest percent (a page has more than that
-        // of writing); a rule is darker than a quarter of the way from paper to ink. Rules can be darker than a
-        // thin hand, so once they are found the levels are measured again without them, and writing is what is
-        // darker than halfway from paper to ink.
-        var px = upright.Pixels;
-        var histogram = Histogram.Build(px);
-        var paper = Histogram.Quantile(histogram, 0.5);
-        var inkLevel = Histogram.Quantile(histogram, o.InkQuantile);
-        if (paper - inkLevel < MinContrast)
+        var rules = Writing(upright, o);
+        if (rules is null)
             return new PageLayout(w, h, deskew, [], []);
-        var ruleLevel = paper - 0.25f * (paper - inkLevel);
-        var dark = new bool[px.Length];
-        var ink = new byte[px.Length];
-        for (var i = 0; i < px.Length; i++)
-        {
-            dark[i] = px[i] < ruleLevel;
-            ink[i] = dark[i] ? (byte)1 : (byte)0;
-        }
-        var rules = RuleRemover.Remove(dark, ink, uw, uh, o);
-        dark = null!;
-        var rest = new long[256];
-        for (var i = 0; i < px.Length; i++)
-            if (rules.Removed[i] == 0) rest[Histogram.Bin(px[i])]++;
-        var writing = Histogram.Quantile(rest, o.InkQuantile);
-        if (paper - writing < MinContrast) writing = inkLevel;
-        var threshold = paper - 0.5f * (paper - writing);
-        for (var i = 0; i < px.Length; i++)
-            rules.Ink[i] = rules.Removed[i] == 0 && px[i] < threshold ? (byte)1 : (byte)0;
-        ink = null!;
         var components = Components.Label(rules.Ink, uw, uh);
         var textHeight = LineSegmenter.TextHeight(components);
         if (textHeight <= 0)
@@ -102,6 +79,44 @@ public sealed class PageAnalyser
             lines.Add(new PageLine(box, s.Column, s.Entry, Crop(upright, rules, owner, s, pad)));
         }
         return new PageLayout(w, h, deskew, dividers, lines);
+    }
+
+    /// <summary>
+    /// The page's writing: a mask of the ink with the ruled lines taken off (<see cref="RuleRemover"/>); null when
+    /// the page has too little contrast to hold any.
+    /// </summary>
+    internal static RuleRemoval? Writing(GrayImage page, PageOptions o)
+    {
+        // Paper is most of a page: its level is the median. Ink is the darkest percent (a page has more than that
+        // of writing); a rule is darker than a quarter of the way from paper to ink. Rules can be darker than a
+        // thin hand, so once they are found the levels are measured again without them, and writing is what is
+        // darker than halfway from paper to ink.
+        var px = page.Pixels;
+        var histogram = Histogram.Build(px);
+        var paper = Histogram.Quantile(histogram, 0.5);
+        var inkLevel = Histogram.Quantile(histogram, o.InkQuantile);
+        if (paper - inkLevel < MinContrast)
+            return null;
+        var ruleLevel = paper - 0.25f * (paper - inkLevel);
+        var dark = new bool[px.Length];
+        var ink = new byte[px.Length];
+        for (var i = 0; i < px.Length; i++)
+        {
+            dark[i] = px[i] < ruleLevel;
+            ink[i] = dark[i] ? (byte)1 : (byte)0;
+        }
+        var rules = RuleRemover.Remove(dark, ink, page.Width, page.Height, o);
+        dark = null!;
+        var rest = new long[256];
+        for (var i = 0; i < px.Length; i++)
+            if (rules.Removed[i] == 0) rest[Histogram.Bin(px[i])]++;
+        var writing = Histogram.Quantile(rest, o.InkQuantile);
+        if (paper - writing < MinContrast) writing = inkLevel;
+        var threshold = paper - 0.5f * (paper - writing);
+        for (var i = 0; i < px.Length; i++)
+            rules.Ink[i] = rules.Removed[i] == 0 && px[i] < threshold ? (byte)1 : (byte)0;
+        ink = null!;
+        return rules;
     }
 
     private static double EstimateSkew(GrayImage flat, PageOptions o)

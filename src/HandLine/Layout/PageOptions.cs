@@ -52,6 +52,12 @@ public sealed record PageOptions
     /// <summary>Auto layout: an image this tall or taller, and at least half as tall as it is wide, is a page.</summary>
     public int PageMinHeight { get; init; } = 600;
 
+    /// <summary>The text-direction cue (<see cref="PageAxisEstimator"/>) runs on a box-downscaled copy of at most about this many pixels.</summary>
+    public int AxisPixels { get; init; } = 400_000;
+
+    /// <summary>The text-direction cue measures squares of the downscaled page this many to its shorter side.</summary>
+    public int AxisSquares { get; init; } = 6;
+
     /// <summary>Throws <see cref="ArgumentException"/> when a value is out of range.</summary>
     public void Validate()
     {
@@ -69,6 +75,8 @@ public sealed record PageOptions
         Check(LineReachHeights > 0, nameof(LineReachHeights), "must be positive");
         Check(WholeComponentShare is > 0.5 and <= 1, nameof(WholeComponentShare), "must be within 0.5..1");
         Check(CropPadHeights is >= 0 and < 3, nameof(CropPadHeights), "must be within 0..3");
+        Check(AxisPixels >= 50_000, nameof(AxisPixels), "must be at least 50000");
+        Check(AxisSquares is >= 1 and <= 50, nameof(AxisSquares), "must be within 1..50");
         Check(PageMinHeight >= 1, nameof(PageMinHeight), "must be positive");
     }
 

@@ -142,22 +142,34 @@ public sealed class Recogniser : IImageRecogniser
     /// <summary>
     /// The rotations worth reading, in order: the ink cue's axis first (<see cref="OrientationEstimator"/>), both of
     /// its readings; all four when the cue is unsure; upright only when there is no ink (the blank image is then
-    /// reported as it always has been); for an image taken as a whole page, upright and upside down only.
+    /// reported as it always has been); for an image taken as a whole page, the two readings of the page cue's axis
+    /// (<see cref="LinePreparer.GuessPageAxis"/>), upright and upside down when it is unsure.
     /// </summary>
     private int[] Candidates(GrayImage page)
     {
-        // The ink cue measures lines; a ruled page's rules and columns mislead it (the fixtures' pages read as lying
-        // sideways), and read across, a page gives short scraps that can outscore the real reading. A page is
-        // compared only with itself upside down; a page lying sideways needs --rotation.
-        if (Lines.TakesAsPageEitherWay(page, Layout)) return [0, 180];
+        // The line cue measures bands of ink; a ruled page's rules and columns mislead it, and read across, a page
+        // gives short scraps that can outscore the real reading, so the model never chooses a page's axis: the page
+        // cue does, measured on the writing with the rules taken off.
+        if (Lines.TakesAsPageEitherWay(page, Layout))
+            return Lines.GuessPageAxis(page)?.Axis(Orientation.SurePageSpread, Orientation.SurePageRhythm) == -1 ? [90, 270] : [0, 180];
         if (OrientationEstimator.Guess(page, Lines.Tuning) is not { } guess) return [0];
         return guess.AxisMargin >= Orientation.SureAxisMargin ? [0, 180]
             : guess.AxisMargin <= -Orientation.SureAxisMargin ? [90, 270]
             : guess.AxisMargin >= 0 ? [0, 180, 90, 270] : [90, 270, 0, 180];
     }
 
-    private IReadOnlyList<PreparedLine> PrepareAt(GrayImage page, int rotation, string nameForErrors) =>
-        Lines.PrepareImage(QuarterTurn.Upright(page, rotation), nameForErrors, Layout).Select(p => p with { RotationDegrees = rotation }).ToArray();
+    /// <summary>The image read turned upright from <paramref name="rotation"/>; a page line's box is mapped back into the image's own pixels.</summary>
+    private IReadOnlyList<PreparedLine> PrepareAt(GrayImage page, int rotation, string nameForErrors)
+    {
+        var upright = QuarterTurn.Upright(page, rotation);
+        return Lines.PrepareImage(upright, nameForErrors, Layout)
+            .Select(p => p with
+            {
+                RotationDegrees = rotation,
+                Box = p.Box is { } box ? QuarterTurn.TurnBox(box, upright.Width, upright.Height, rotation) : null,
+            })
+            .ToArray();
+    }
 
     /// <summary>The model's mean confidence over a reading's characters.</summary>
     private static double Score(IReadOnlyList<LineResult> results)

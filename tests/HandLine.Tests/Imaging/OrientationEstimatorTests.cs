@@ -1,8 +1,9 @@
+using HandLine.Formats;
 using HandLine.Imaging;
 
 namespace HandLine.Tests.Imaging;
 
-/// <summary>Quarter turns are exact, and the ink cue tells lines running across from lines running down.</summary>
+/// <summary>Quarter turns are exact (boxes too), and the ink cue tells lines running across from lines running down.</summary>
 public sealed class OrientationEstimatorTests
 {
     [Fact]
@@ -18,6 +19,21 @@ public sealed class OrientationEstimatorTests
         foreach (var r in QuarterTurn.Rotations)
             Assert.Equal(image.Pixels, QuarterTurn.Upright(QuarterTurn.Clockwise(image, r), r).Pixels);
         Assert.Throws<ArgumentOutOfRangeException>(() => QuarterTurn.Upright(image, 45));
+    }
+
+    [Fact]
+    public void ABoxIsMappedWhereATurnOfTheWholeImageTakesIt()
+    {
+        const int w = 7, h = 5;
+        var box = new LineBox(1, 2, 4, 2);
+        var mask = GrayImage.Filled(w, h, 0f);
+        for (var y = box.Y; y < box.Bottom; y++)
+            for (var x = box.X; x < box.Right; x++) mask.Pixels[y * w + x] = 1f;
+        foreach (var r in QuarterTurn.Rotations)
+        {
+            var (x0, y0, x1, y1) = ImagingTestSupport.Bounds(QuarterTurn.Clockwise(mask, r), 0.5f)!.Value;
+            Assert.Equal(new LineBox(x0, y0, x1 - x0 + 1, y1 - y0 + 1), QuarterTurn.TurnBox(box, w, h, r));
+        }
     }
 
     [Theory]

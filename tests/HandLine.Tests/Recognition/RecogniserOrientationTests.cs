@@ -2,12 +2,14 @@ using HandLine.Imaging;
 using HandLine.Model;
 using HandLine.Recognition;
 using HandLine.Tests.Imaging;
+using HandLine.Tests.Layout;
 
 namespace HandLine.Tests.Recognition;
 
 /// <summary>
-/// Lines and pages turned by quarter turns read as the upright ones do, with their rotation reported, through the
-/// bundled model; a blank image still gives only the "no ink" error.
+/// Lines and pages turned by quarter turns read as the upright ones do, with their rotation reported (and a page's
+/// boxes on the image as it was given), through the bundled model; a blank image still gives only the error it gives
+/// read upright.
 /// </summary>
 public sealed class RecogniserOrientationTests : IClassFixture<RecogniserOrientationTests.BundledModel>
 {
@@ -54,6 +56,42 @@ public sealed class RecogniserOrientationTests : IClassFixture<RecogniserOrienta
         var read = Read(QuarterTurn.Clockwise(page, 270), OrientationOptions.Auto);
         Assert.Equal(upright.Select(r => r.Text), read.Select(r => r.Text));
         Assert.All(read, r => Assert.Equal(270, r.RotationDegrees));
+    }
+
+    [Fact]
+    public void ARuledPageTurnedAnyQuarterReadsAsTheUprightPageWithItsBoxesOnTheImageAsGiven()
+    {
+        var sheet = TurnedPages.RuledSheet(["Paid the carrier 4s 6d", "Wages to Lady Day", "Sold 2 cwt. hay to Mr Orrin"]);
+        var upright = Read(sheet, new OrientationOptions { Fixed = 0 });
+        Assert.Equal(3, upright.Count);
+        Assert.All(upright, r => Assert.Equal("page", r.Layout));
+        // The two sideways turns: upside down pages were read before the page cue (QuarterTurnTests map boxes all four
+        // ways); each page reading takes a while.
+        foreach (var clockwise in new[] { 90, 270 })
+        {
+            var read = new Recogniser(_model.Model).Read(TurnedPages.TurnedPng(sheet, clockwise), "page.png", "page.png");
+            Assert.Equal(upright.Select(r => (r.Text, clockwise)), read.Select(r => (r.Text, r.RotationDegrees)));
+            // Each box lies where the upright line's box lies once ImageSharp has turned the sheet: turn a mask of
+            // the upright box the same way and take its bounds.
+            for (var i = 0; i < read.Count; i++)
+            {
+                var mask = GrayImage.Filled(sheet.Width, sheet.Height, 0f);
+                var b = upright[i].Box!;
+                for (var y = b[1]; y < b[1] + b[3]; y++)
+                    for (var x = b[0]; x < b[0] + b[2]; x++) mask.Pixels[y * sheet.Width + x] = 1f;
+                var (x0, y0, x1, y1) = ImagingTestSupport.Bounds(TurnedPages.TurnedImage(mask, clockwise), 0.5f)!.Value;
+                Assert.Equal([x0, y0, x1 - x0 + 1, y1 - y0 + 1], read[i].Box!);
+            }
+        }
+    }
+
+    [Fact]
+    public void ABlankPageGivesTheErrorItGivesReadUpright()
+    {
+        var blank = GrayImage.Filled(700, 900, 0.96f);
+        var expected = Assert.Throws<InputException>(() => Read(blank, new OrientationOptions { Fixed = 0 }));
+        var e = Assert.Throws<InputException>(() => Read(blank, OrientationOptions.Auto));
+        Assert.Equal((expected.Stage, expected.Reason), (e.Stage, e.Reason));
     }
 
     [Fact]
