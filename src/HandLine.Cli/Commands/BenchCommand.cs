@@ -69,24 +69,27 @@ internal static class BenchCommand
         {
             // (a) imaging: bytes to prepared lines, one image after another on one thread.
             recogniser.Prepare(images[0], "warm-up");
+            var cpu = ProcessorTime();
             var clock = Stopwatch.StartNew();
             var prepared = images.Select((b, i) => recogniser.Prepare(b, $"line {i}")).ToArray();
             var imagingSeconds = clock.Elapsed.TotalSeconds;
+            var imagingCpu = ProcessorTime() - cpu;
             var lines = prepared.SelectMany(p => p).ToArray();
             var meanFrames = lines.Average(l => l.Features.Frames);
             var meanWidth = lines.Average(l => l.Line.Ink.Width);
 
             // (b) the network at each batch size, as transcribe batches it.
             var forward = new JsonObject();
-            var best = (Batch: 0, LinesPerSecond: 0.0, Posteriors: (IReadOnlyList<Posteriors>)[]);
+            var best = (Batch: 0, LinesPerSecond: 0.0, Posteriors: (IReadOnlyList<Posteriors>)[], Cpu: 0.0);
             foreach (var size in BatchSizes)
             {
                 recogniser.RunInLanes(lines.Take(size).ToArray(), size); // warm-up at this shape
+                cpu = ProcessorTime();
                 clock.Restart();
                 var posteriors = recogniser.RunInLanes(lines, size);
                 var rate = lines.Length / clock.Elapsed.TotalSeconds;
                 forward[size.ToString(CultureInfo.InvariantCulture)] = Round(rate);
-                if (rate > best.LinesPerSecond) best = (size, rate, posteriors);
+                if (rate > best.LinesPerSecond) best = (size, rate, posteriors, ProcessorTime() - cpu);
             }
 
             // How the network's speed goes with line width: the lines in three equal groups by frame count.
@@ -112,9 +115,11 @@ internal static class BenchCommand
             // (d) end to end: the same lines as image files through a real transcription run.
             var input = Path.Combine(work, "lines");
             BenchLines.Write(images, input);
+            cpu = ProcessorTime();
             clock.Restart();
             var run = TranscribeRun.Run([input], new TranscribeOptions(Path.Combine(work, "out"), modelPath), TextWriter.Null);
             var endToEnd = run.Lines / clock.Elapsed.TotalSeconds;
+            var endToEndCpu = ProcessorTime() - cpu;
 
             // The naive path: one image at a time, read, prepared, the network on its lines alone, decoded.
             var naive = Naive(recogniser, input);
@@ -145,15 +150,18 @@ internal static class BenchCommand
                 ["load_average_1min"] = load,
                 ["model"] = lineModel.Id,
                 ["imaging_lines_per_s"] = Round(lines.Length / imagingSeconds),
+                ["imaging_cpu_ms_per_line"] = Round(1000 * imagingCpu / lines.Length, 2),
                 ["model_lines_per_s_by_batch"] = forward,
                 ["model_best_batch"] = best.Batch,
                 ["model_lines_per_s_by_width"] = byWidth,
                 ["model_lines_per_s"] = Round(best.LinesPerSecond),
+                ["model_cpu_ms_per_line"] = Round(1000 * best.Cpu / lines.Length, 2),
                 ["greedy_lines_per_s"] = Round(greedy),
                 ["beam_lines_per_s"] = Round(beam),
                 ["decode_share"] = Round(best.LinesPerSecond / beam, 4),
                 ["end_to_end_lines_per_s"] = Round(endToEnd),
                 ["end_to_end_share_of_model"] = Round(endToEnd / best.LinesPerSecond, 4),
+                ["end_to_end_cpu_ms_per_line"] = Round(1000 * endToEndCpu / run.Lines, 2),
                 ["naive_lines_per_s"] = Round(naive),
                 ["speedup_over_naive"] = Round(endToEnd / naive, 3),
                 ["matmul_gflops_by_shape"] = ceilings,
@@ -234,20 +242,31 @@ internal static class BenchCommand
 
     private static double Round(double v, int digits = 1) => Math.Round(v, digits);
 
+    /// <summary>
+    /// Seconds of CPU this process has used, on all its threads. On a machine shared with other work, wall-clock
+    /// rates move with the load; CPU time per line moves much less, so it compares builds measured at different loads.
+    /// </summary>
+    private static double ProcessorTime()
+    {
+        using var self = Process.GetCurrentProcess();
+        return self.TotalProcessorTime.TotalSeconds;
+    }
+
     private static string Table(JsonObject f)
     {
         var ci = CultureInfo.InvariantCulture;
         var w = new StringWriter(ci);
         w.WriteLine($"bench: {f["lines"]} lines from {f["images"]} images ({f["source"]}), mean normalised width {f["mean_width_px"]} px, {f["mean_frames"]} frames; " +
                     $"model {f["model"]}; {f["threads"]} thread(s) of {f["cores"]} cores; load average {f["load_average_1min"]}");
-        w.WriteLine($"  imaging (one thread)          {f["imaging_lines_per_s"],9} lines/s");
+        w.WriteLine($"  imaging (one thread)          {f["imaging_lines_per_s"],9} lines/s   {f["imaging_cpu_ms_per_line"]} ms CPU a line");
         foreach (var (size, rate) in f["model_lines_per_s_by_batch"]!.AsObject())
             w.WriteLine($"  network, batch {size,-3}           {rate,9} lines/s");
         foreach (var part in f["model_lines_per_s_by_width"]!.AsArray())
             w.WriteLine($"  network, {part!["mean_frames"],5} frames a line {part["lines_per_s"],9} lines/s (batch {f["model_best_batch"]})");
         w.WriteLine($"  decoding, greedy              {f["greedy_lines_per_s"],9} lines/s");
         w.WriteLine($"  decoding, default beam        {f["beam_lines_per_s"],9} lines/s   decode/network time {f["decode_share"]}");
-        w.WriteLine($"  transcribe, end to end        {f["end_to_end_lines_per_s"],9} lines/s   {f["end_to_end_share_of_model"]} of the network's best");
+        w.WriteLine($"  network CPU at its best batch {f["model_cpu_ms_per_line"],9} ms a line");
+        w.WriteLine($"  transcribe, end to end        {f["end_to_end_lines_per_s"],9} lines/s   {f["end_to_end_share_of_model"]} of the network's best; {f["end_to_end_cpu_ms_per_line"]} ms CPU a line (all threads, model load included)");
         w.WriteLine($"  naive (one image at a time)   {f["naive_lines_per_s"],9} lines/s   end to end is {f["speedup_over_naive"]}x this");
         foreach (var (shape, g) in f["matmul_gflops_by_shape"]!.AsObject())
             w.WriteLine($"  matmul {shape,-34} {g,7} GFLOP/s");

@@ -90,63 +90,91 @@ internal static class SlantEstimator
         private readonly int[] _count = new int[columns];
         private readonly int[] _top = new int[columns];
         private readonly int[] _bottom = new int[columns];
-        private int[][]? _candidates;
+        private Candidates? _candidates;
 
         public double Score(GrayImage line, double yc, double tan, int reach)
         {
-            _candidates ??= Candidates(line);
-            Array.Clear(_count);
-            int w = line.Width;
-            var p = line.Pixels;
+            var candidates = _candidates ??= new Candidates(line);
+            var count = _count;
+            var top = _top;
+            var bottom = _bottom;
+            Array.Clear(count);
+            var rowStart = candidates.RowStart;
+            var xs = candidates.X;
+            var rights = candidates.Right;
+            var lefts = candidates.Left;
             for (int y = 0; y < line.Height; y++)
             {
+                int j = rowStart[y], end = rowStart[y + 1];
+                if (j == end) continue;
                 // Undo a rightward lean: output column c = x + (y − yc)·tan (UprightTransform's shear),
                 // so output c blends source x = c − k (weight 1 − g) and x − 1 (weight g).
                 double d = (y - yc) * tan;
                 int k = (int)Math.Floor(d);
                 float g = (float)(d - k);
-                int row = y * w;
-                foreach (int x in _candidates[y])
+                int shift = k + reach;
+                for (; j < end; j++)
                 {
-                    float right = x < w ? p[row + x] : 0f;
-                    float left = x > 0 ? p[row + x - 1] : 0f;
-                    if (right + (left - right) * g < InkLevel) continue;
-                    int slot = x + k + reach;
-                    if (_count[slot]++ == 0) _top[slot] = y;
-                    _bottom[slot] = y;
+                    float right = rights[j];
+                    if (right + (lefts[j] - right) * g < InkLevel) continue;
+                    int slot = xs[j] + shift;
+                    if (count[slot]++ == 0) top[slot] = y;
+                    bottom[slot] = y;
                 }
             }
             double score = 0;
-            for (int c = 0; c < _count.Length; c++)
+            for (int c = 0; c < count.Length; c++)
             {
-                int h = _count[c];
+                int h = count[c];
                 // Rows arrive in order and each adds at most one pixel per column, so h = span means unbroken.
-                if (h > 1 && h == _bottom[c] - _top[c] + 1)
+                if (h > 1 && h == bottom[c] - top[c] + 1)
                     score += (double)h * h;
             }
             return score;
         }
+    }
 
-        // Per row, the source positions x (0..w) whose blend of x and x − 1 can reach the ink level:
-        // a blend never exceeds the larger of the two, so everything else is paper at any shear.
-        private static int[][] Candidates(GrayImage line)
+    /// <summary>
+    /// Per row, the source positions x (0..w) whose blend of x and x − 1 can reach the ink level, with the two
+    /// values blended (0 beyond the edges): a blend never exceeds the larger of the two, so everything else is paper
+    /// at any shear. Gathered once for all candidate angles.
+    /// </summary>
+    private sealed class Candidates
+    {
+        public Candidates(GrayImage line)
         {
             int w = line.Width;
             var p = line.Pixels;
-            var rows = new int[line.Height][];
-            var buffer = new List<int>();
+            var xs = new List<int>();
+            var rights = new List<float>();
+            var lefts = new List<float>();
+            RowStart = new int[line.Height + 1];
             for (int y = 0; y < line.Height; y++)
             {
-                buffer.Clear();
+                RowStart[y] = xs.Count;
                 for (int x = 0; x <= w; x++)
                 {
                     float right = x < w ? p[y * w + x] : 0f;
                     float left = x > 0 ? p[y * w + x - 1] : 0f;
-                    if (Math.Max(left, right) >= InkLevel) buffer.Add(x);
+                    if (Math.Max(left, right) < InkLevel) continue;
+                    xs.Add(x);
+                    rights.Add(right);
+                    lefts.Add(left);
                 }
-                rows[y] = buffer.ToArray();
             }
-            return rows;
+            RowStart[line.Height] = xs.Count;
+            X = xs.ToArray();
+            Right = rights.ToArray();
+            Left = lefts.ToArray();
         }
+
+        /// <summary>Where each row's candidates start in <see cref="X"/> (one more entry than rows).</summary>
+        public int[] RowStart { get; }
+
+        public int[] X { get; }
+
+        public float[] Right { get; }
+
+        public float[] Left { get; }
     }
 }

@@ -21,7 +21,8 @@ public sealed class BenchCommandTests : IDisposable
                  {
                      "end_to_end_lines_per_s", "model_lines_per_s", "imaging_lines_per_s", "decode_share", "matmul_gflops",
                      "model_ceiling_share", "greedy_lines_per_s", "beam_lines_per_s", "naive_lines_per_s",
-                     "network_mflop_per_line", "peak_memory_mb", "speedup_over_naive",
+                     "network_mflop_per_line", "peak_memory_mb", "speedup_over_naive", "imaging_cpu_ms_per_line", "model_cpu_ms_per_line",
+                     "end_to_end_cpu_ms_per_line",
                  })
             Assert.True(f.GetProperty(name).GetDouble() > 0, $"{name} is {f.GetProperty(name)}");
         Assert.Equal(8, f.GetProperty("lines").GetInt32());
