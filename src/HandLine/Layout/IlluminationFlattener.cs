@@ -46,7 +46,23 @@ internal static class IlluminationFlattener
                     }
                 paper[by * gw + bx] = m;
             }
-        paper = Smooth(paper, gw, gh);
+        // Then the darkest of those within two blocks (a grey-level closing: the maximum, then the minimum, over the
+        // same window): the maximum alone carries the paper's level over a window's width into a stain or a shadow,
+        // whose edge then stands out as dark as ink; the minimum brings the level back to where the stain begins.
+        var closed = new float[gw * gh];
+        for (var by = 0; by < gh; by++)
+            for (var bx = 0; bx < gw; bx++)
+            {
+                var m = float.MaxValue;
+                for (var dy = -2; dy <= 2; dy++)
+                    for (var dx = -2; dx <= 2; dx++)
+                    {
+                        int x = bx + dx, y = by + dy;
+                        if ((uint)x < (uint)gw && (uint)y < (uint)gh && paper[y * gw + x] < m) m = paper[y * gw + x];
+                    }
+                closed[by * gw + bx] = m;
+            }
+        paper = Smooth(closed, gw, gh);
 
         var dst = new float[src.Length];
         for (var y = 0; y < h; y++)

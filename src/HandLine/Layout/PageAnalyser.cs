@@ -88,6 +88,26 @@ public sealed class PageAnalyser
             rules.Ink[i] = rules.Removed[i] == 0 && px[i] < threshold ? (byte)1 : (byte)0;
         ink = null!;
         var components = Components.Label(rules.Ink, uw, uh);
+        // Hysteresis thresholding (Canny 1986, "A computational approach to edge detection", IEEE PAMI 8(6), applied
+        // to ink): a component is writing only where some of its pixels are clearly dark, at least three quarters
+        // of the way from paper to ink. The edge of a stain or a shadow that the flattening leaves a little dark
+        // passes the halfway threshold over a long band but never reaches the level of a pen stroke's core.
+        var strong = paper - (float)o.StrongInkShare * (paper - writing);
+        var darkest = new float[components.Count + 1];
+        Array.Fill(darkest, 1f);
+        for (var i = 0; i < px.Length; i++)
+        {
+            var l = components.Labels[i];
+            if (l != 0 && px[i] < darkest[l]) darkest[l] = px[i];
+        }
+        var faint = 0;
+        for (var l = 1; l <= components.Count; l++) if (darkest[l] >= strong) faint++;
+        if (faint > 0)
+        {
+            for (var i = 0; i < px.Length; i++)
+                if (rules.Ink[i] != 0 && darkest[components.Labels[i]] >= strong) rules.Ink[i] = 0;
+            components = Components.Label(rules.Ink, uw, uh);
+        }
         var textHeight = LineSegmenter.TextHeight(components);
         if (textHeight <= 0)
             return new PageLayout(w, h, deskew, [], []);
