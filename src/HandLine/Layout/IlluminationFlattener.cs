@@ -4,7 +4,7 @@ namespace HandLine.Layout;
 
 /// <summary>
 /// Illumination flattening by background division: the paper's level is estimated everywhere as a grey-level
-/// dilation (a maximum filter) of the luminance over a window wider than any stroke, smoothed, and each pixel is
+/// closing (a maximum filter, then a minimum filter) of the luminance over a window wider than any stroke, smoothed, and each pixel is
 /// divided by it, so uneven light, stains and yellowed paper all come out as paper of level 1 while ink keeps its
 /// contrast to the paper around it (common practice, no source). The maximum runs on blocks of a quarter window,
 /// so the cost and the memory beyond the output are small even for a large page.

@@ -3,10 +3,14 @@ namespace HandLine.Layout;
 /// <summary>
 /// Text-line segmentation of the upright, rule-free page: in each column, the row profile of the ink (pixels per
 /// row) is smoothed with a Gaussian, and each peak is a line, its band reaching to the deepest valley between it and
-/// the next peak (projection-profile segmentation, common practice, no source). Connected components then go to
+/// the next peak (projection-profile segmentation, common practice, no source). The column's line pitch, from the
+/// profile's autocorrelation, keeps peaks about a pitch apart as two lines even where touching rows fill the valley
+/// between them. Connected components then go to
 /// the lines: a component with most of its ink (<see cref="PageOptions.WholeComponentShare"/>) in one band belongs
 /// to that line whole, so ascenders and descenders that reach into a neighbouring band stay with their letters;
 /// one spread over two bands (ascenders and descenders of neighbouring lines touching) is cut at the valley row.
+/// A band whose pieces stand in two tiers a good part of a pitch apart holds two lines (a short line beside a long
+/// one, whose own peak the profile did not show) and is parted between them.
 /// Within a band, ink further apart than <see cref="PageOptions.PartGapHeights"/> text heights makes separate
 /// lines; dots and other small marks join the line they fall in. Reading order: entries (lines of all columns whose
 /// peaks lie within half a text height) top to bottom, and within an entry left to right.
@@ -168,16 +172,21 @@ internal sealed class LineSegmenter
         var gap = options.PartGapHeights * hText;
         // Ink far above or below its band's peak (a rule's remains, a stain's edge) is no part of the line.
         var reach = options.LineReachHeights * hText;
-        foreach (var group in pieces.Values
-                     .Where(p => Math.Abs((p.MinY + p.MaxY) / 2.0 - peaks[_zone[p.Component]][p.Band]) <= reach)
-                     .GroupBy(p => (Zone: _zone[p.Component], p.Band)))
+        foreach (var group in pieces.Values.GroupBy(p => (Zone: _zone[p.Component], p.Band)))
         {
-            var small = group.Where(p => !_seed[p.Component]).ToList();
+            var peak = peaks[group.Key.Zone][group.Key.Band];
+            var small = group.Where(p => !_seed[p.Component] && Math.Abs(p.MidY - peak) <= reach).ToList();
+            var big = group.Where(p => _seed[p.Component]).ToList();
+            if (big.Count == 0) continue;
+            var nearest = big.MinBy(p => Math.Abs(p.MidY - peak));
             var runs = new List<List<Piece>>();
-            foreach (var tier in Tiers(group.Where(p => _seed[p.Component]).ToList(), pitches[group.Key.Zone], hText, minSeed))
+            foreach (var tier in Tiers(big, pitches[group.Key.Zone], hText, minSeed))
             {
+                // The tier that holds the ink nearest the band's peak is the peak's line; another tier is a line
+                // whose own peak the profile did not show, measured from its own middle.
+                var anchor = tier.Contains(nearest) ? peak : WeightedMiddle(tier);
                 var first = runs.Count;
-                foreach (var p in tier.OrderBy(p => p.MinX))
+                foreach (var p in tier.Where(p => Math.Abs(p.MidY - anchor) <= reach).OrderBy(p => p.MinX))
                 {
                     if (runs.Count == first || p.MinX - runs[^1].Max(q => q.MaxX) > gap) runs.Add([]);
                     runs[^1].Add(p);
@@ -268,6 +277,8 @@ internal sealed class LineSegmenter
         bool LineLike(List<Piece> tier) =>
             tier.Sum(p => p.Area) >= 2 * minSeed && tier.Max(p => p.MaxY) - tier.Min(p => p.MinY) + 1 >= 0.4 * hText;
     }
+
+    private static double WeightedMiddle(List<Piece> tier) => tier.Sum(p => p.MidY * p.Area) / tier.Sum(p => (double)p.Area);
 
     private static double[] Gaussian(double[] v, double sigma)
     {

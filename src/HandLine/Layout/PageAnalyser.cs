@@ -6,7 +6,8 @@ namespace HandLine.Layout;
 /// A scanned page to its lines in reading order, in stages: illumination flattening
 /// (<see cref="IlluminationFlattener"/>, background division) → deskew (the rotation whose horizontal projection
 /// profile is sharpest, searched within ± <see cref="PageOptions.MaxDeskewDegrees"/>, as for lines:
-/// <c>SkewEstimator</c>) → binarisation (Otsu's threshold) → ruled-line detection and removal
+/// <c>SkewEstimator</c>) → binarisation (halfway from paper to ink, with hysteresis: <see cref="InkHysteresis"/>)
+/// → ruled-line detection and removal
 /// (<see cref="RuleRemover"/>, opening with long line-shaped structuring elements, crossing writing kept) → columns
 /// (vertical rules that run down the page, and clear vertical strips with writing on both sides) → text lines
 /// (<see cref="LineSegmenter"/>: smoothed projection profiles per column with connected-component assignment) →
@@ -87,27 +88,9 @@ public sealed class PageAnalyser
         for (var i = 0; i < px.Length; i++)
             rules.Ink[i] = rules.Removed[i] == 0 && px[i] < threshold ? (byte)1 : (byte)0;
         ink = null!;
-        var components = Components.Label(rules.Ink, uw, uh);
-        // Hysteresis thresholding (Canny 1986, "A computational approach to edge detection", IEEE PAMI 8(6), applied
-        // to ink): a component is writing only where some of its pixels are clearly dark, at least three quarters
-        // of the way from paper to ink. The edge of a stain or a shadow that the flattening leaves a little dark
-        // passes the halfway threshold over a long band but never reaches the level of a pen stroke's core.
+        // Hysteresis: a component is writing only where some of its pixels are clearly dark.
         var strong = paper - (float)o.StrongInkShare * (paper - writing);
-        var darkest = new float[components.Count + 1];
-        Array.Fill(darkest, 1f);
-        for (var i = 0; i < px.Length; i++)
-        {
-            var l = components.Labels[i];
-            if (l != 0 && px[i] < darkest[l]) darkest[l] = px[i];
-        }
-        var faint = 0;
-        for (var l = 1; l <= components.Count; l++) if (darkest[l] >= strong) faint++;
-        if (faint > 0)
-        {
-            for (var i = 0; i < px.Length; i++)
-                if (rules.Ink[i] != 0 && darkest[components.Labels[i]] >= strong) rules.Ink[i] = 0;
-            components = Components.Label(rules.Ink, uw, uh);
-        }
+        var components = InkHysteresis.Apply(rules.Ink, px, uw, uh, strong);
         var textHeight = LineSegmenter.TextHeight(components);
         if (textHeight <= 0)
             return new PageLayout(w, h, deskew, [], []);
