@@ -56,8 +56,9 @@ public sealed class PageAnalyserTests
             var layout = analyser.Analyse(ImageLoader.Load(Path.Combine(dir, "pages", name + ".png"), InputLimits.Default));
             var truth = BoxFile.Read(Path.Combine(dir, "boxes", name + ".tsv"));
             var score = SegmentationScore.Match(name, truth, layout.Lines.Select(l => l.Box).ToArray());
-            // Measured: 62 of 66 lines on the ledger page (two pairs of touching entries merge), 90 of 91 on the register.
-            Assert.True(score.Matched >= 0.9 * truth.Count, $"{name}: {score.Matched} of {truth.Count} matched");
+            // Measured: 66 of 66 lines on the ledger page, 91 of 91 on the register (62 and 90 before the line
+            // pitch parted touching entries); the bar leaves room for small changes of the drawing.
+            Assert.True(score.Matched >= 0.97 * truth.Count, $"{name}: {score.Matched} of {truth.Count} matched");
 
             // Reading order: entries never go back up, and within an entry the columns run left to right.
             for (var i = 1; i < layout.Lines.Count; i++)
