@@ -46,16 +46,19 @@ internal static class IlluminationFlattener
                     }
                 paper[by * gw + bx] = m;
             }
-        // Then the darkest of those within two blocks (a grey-level closing: the maximum, then the minimum, over the
-        // same window): the maximum alone carries the paper's level over a window's width into a stain or a shadow,
-        // whose edge then stands out as dark as ink; the minimum brings the level back to where the stain begins.
+        // Then the darkest of those within three blocks (a grey-level closing: the maximum, then the minimum): the
+        // maximum alone carries the paper's level over a window's width into a stain or a shadow, whose edge then
+        // stands out as dark as ink; the minimum brings the level back to where the stain begins. It reaches one
+        // block further than the maximum, because the block that straddles a stain's edge has the paper's level:
+        // paper just outside a stain then comes out brighter than paper (clipped to 1) rather than the stain's
+        // edge darker. Dark areas narrower than the maximum's reach (ink) are filled by it and stay filled.
         var closed = new float[gw * gh];
         for (var by = 0; by < gh; by++)
             for (var bx = 0; bx < gw; bx++)
             {
                 var m = float.MaxValue;
-                for (var dy = -2; dy <= 2; dy++)
-                    for (var dx = -2; dx <= 2; dx++)
+                for (var dy = -3; dy <= 3; dy++)
+                    for (var dx = -3; dx <= 3; dx++)
                     {
                         int x = bx + dx, y = by + dy;
                         if ((uint)x < (uint)gw && (uint)y < (uint)gh && paper[y * gw + x] < m) m = paper[y * gw + x];
