@@ -4,7 +4,7 @@ namespace HandLine.Layout;
 
 /// <summary>
 /// Illumination flattening by background division: the paper's level is estimated everywhere as a grey-level
-/// dilation (a maximum filter) of the luminance over a window wider than any stroke, smoothed, and each pixel is
+/// closing (a maximum filter, then a minimum filter) of the luminance over a window wider than any stroke, smoothed, and each pixel is
 /// divided by it, so uneven light, stains and yellowed paper all come out as paper of level 1 while ink keeps its
 /// contrast to the paper around it (common practice, no source). The maximum runs on blocks of a quarter window,
 /// so the cost and the memory beyond the output are small even for a large page.
@@ -46,7 +46,26 @@ internal static class IlluminationFlattener
                     }
                 paper[by * gw + bx] = m;
             }
-        paper = Smooth(paper, gw, gh);
+        // Then the darkest of those within three blocks (a grey-level closing: the maximum, then the minimum): the
+        // maximum alone carries the paper's level over a window's width into a stain or a shadow, whose edge then
+        // stands out as dark as ink; the minimum brings the level back to where the stain begins. It reaches one
+        // block further than the maximum, because the block that straddles a stain's edge has the paper's level:
+        // paper just outside a stain then comes out brighter than paper (clipped to 1) rather than the stain's
+        // edge darker. Dark areas narrower than the maximum's reach (ink) are filled by it and stay filled.
+        var closed = new float[gw * gh];
+        for (var by = 0; by < gh; by++)
+            for (var bx = 0; bx < gw; bx++)
+            {
+                var m = float.MaxValue;
+                for (var dy = -3; dy <= 3; dy++)
+                    for (var dx = -3; dx <= 3; dx++)
+                    {
+                        int x = bx + dx, y = by + dy;
+                        if ((uint)x < (uint)gw && (uint)y < (uint)gh && paper[y * gw + x] < m) m = paper[y * gw + x];
+                    }
+                closed[by * gw + bx] = m;
+            }
+        paper = Smooth(closed, gw, gh);
 
         var dst = new float[src.Length];
         for (var y = 0; y < h; y++)

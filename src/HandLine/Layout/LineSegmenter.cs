@@ -3,10 +3,14 @@ namespace HandLine.Layout;
 /// <summary>
 /// Text-line segmentation of the upright, rule-free page: in each column, the row profile of the ink (pixels per
 /// row) is smoothed with a Gaussian, and each peak is a line, its band reaching to the deepest valley between it and
-/// the next peak (projection-profile segmentation, common practice, no source). Connected components then go to
+/// the next peak (projection-profile segmentation, common practice, no source). The column's line pitch, from the
+/// profile's autocorrelation, keeps peaks about a pitch apart as two lines even where touching rows fill the valley
+/// between them. Connected components then go to
 /// the lines: a component with most of its ink (<see cref="PageOptions.WholeComponentShare"/>) in one band belongs
 /// to that line whole, so ascenders and descenders that reach into a neighbouring band stay with their letters;
 /// one spread over two bands (ascenders and descenders of neighbouring lines touching) is cut at the valley row.
+/// A band whose pieces stand in two tiers a good part of a pitch apart holds two lines (a short line beside a long
+/// one, whose own peak the profile did not show) and is parted between them.
 /// Within a band, ink further apart than <see cref="PageOptions.PartGapHeights"/> text heights makes separate
 /// lines; dots and other small marks join the line they fall in. Reading order: entries (lines of all columns whose
 /// peaks lie within half a text height) top to bottom, and within an entry left to right.
@@ -96,11 +100,21 @@ internal sealed class LineSegmenter
                 if (l != 0 && _seed[l]) profiles[_zone[l]][y]++;
             }
 
+        // The page's pitch, from all columns' profiles together: a column with few entries (a margin, a money
+        // column) repeats only every few rows, and its own profile's period is a multiple of the rows' pitch.
+        var whole = new double[_h];
+        foreach (var p in profiles)
+            for (var y = 0; y < _h; y++) whole[y] += p[y];
+        var pagePitch = Pitch(whole, hText);
         var peaks = new List<int>[columns];
+        var pitches = new int[columns];
         for (var z = 0; z < columns; z++)
         {
             var smooth = Gaussian(profiles[z], options.ProfileSigmaHeights * hText);
-            peaks[z] = Peaks(smooth, hText, options);
+            var pitch = Pitch(profiles[z], hText);
+            if (pagePitch > 0 && (pitch == 0 || IsMultiple(pitch, pagePitch))) pitch = pagePitch;
+            pitches[z] = pitch;
+            peaks[z] = Peaks(smooth, hText, pitch, options);
             _bandOfRow[z] = Bands(smooth, peaks[z], _h);
         }
 
@@ -136,10 +150,10 @@ internal sealed class LineSegmenter
         }
 
         // Pieces: a component's ink within one band, with its bounds.
-        var pieces = new Dictionary<long, (int Component, int Band, int MinX, int MinY, int MaxX, int MaxY, int Area)>();
+        var pieces = new Dictionary<long, Piece>();
         for (var i = 1; i <= c.Count; i++)
             if (_whole[i] >= 0)
-                pieces[Key(i, _whole[i])] = (i, _whole[i], c.MinX[i], c.MinY[i], c.MaxX[i], c.MaxY[i], c.Area[i]);
+                pieces[Key(i, _whole[i])] = new Piece(i, _whole[i], c.MinX[i], c.MinY[i], c.MaxX[i], c.MaxY[i], c.Area[i]);
         if (spread.Count > 0)
             for (var y = 0; y < _h; y++)
                 for (var x = 0; x < _w; x++)
@@ -149,8 +163,8 @@ internal sealed class LineSegmenter
                     var b = _bandOfRow[_zone[l]][y];
                     var k = Key(l, b);
                     pieces[k] = pieces.TryGetValue(k, out var p)
-                        ? (l, b, Math.Min(p.MinX, x), Math.Min(p.MinY, y), Math.Max(p.MaxX, x), Math.Max(p.MaxY, y), p.Area + 1)
-                        : (l, b, x, y, x, y, 1);
+                        ? new Piece(l, b, Math.Min(p.MinX, x), Math.Min(p.MinY, y), Math.Max(p.MaxX, x), Math.Max(p.MaxY, y), p.Area + 1)
+                        : new Piece(l, b, x, y, x, y, 1);
                 }
 
         // Lines: within a column's band, the big pieces grouped left to right while the gaps are small.
@@ -158,17 +172,25 @@ internal sealed class LineSegmenter
         var gap = options.PartGapHeights * hText;
         // Ink far above or below its band's peak (a rule's remains, a stain's edge) is no part of the line.
         var reach = options.LineReachHeights * hText;
-        foreach (var group in pieces.Values
-                     .Where(p => Math.Abs((p.MinY + p.MaxY) / 2.0 - peaks[_zone[p.Component]][p.Band]) <= reach)
-                     .GroupBy(p => (Zone: _zone[p.Component], p.Band)))
+        foreach (var group in pieces.Values.GroupBy(p => (Zone: _zone[p.Component], p.Band)))
         {
-            var big = group.Where(p => _seed[p.Component]).OrderBy(p => p.MinX).ToList();
-            var small = group.Where(p => !_seed[p.Component]).ToList();
-            var runs = new List<List<(int Component, int Band, int MinX, int MinY, int MaxX, int MaxY, int Area)>>();
-            foreach (var p in big)
+            var peak = peaks[group.Key.Zone][group.Key.Band];
+            var small = group.Where(p => !_seed[p.Component] && Math.Abs(p.MidY - peak) <= reach).ToList();
+            var big = group.Where(p => _seed[p.Component]).ToList();
+            if (big.Count == 0) continue;
+            var nearest = big.MinBy(p => Math.Abs(p.MidY - peak));
+            var runs = new List<List<Piece>>();
+            foreach (var tier in Tiers(big, pitches[group.Key.Zone], hText, minSeed))
             {
-                if (runs.Count == 0 || p.MinX - runs[^1].Max(q => q.MaxX) > gap) runs.Add([]);
-                runs[^1].Add(p);
+                // The tier that holds the ink nearest the band's peak is the peak's line; another tier is a line
+                // whose own peak the profile did not show, measured from its own middle.
+                var anchor = tier.Contains(nearest) ? peak : WeightedMiddle(tier);
+                var first = runs.Count;
+                foreach (var p in tier.Where(p => Math.Abs(p.MidY - anchor) <= reach).OrderBy(p => p.MinX))
+                {
+                    if (runs.Count == first || p.MinX - runs[^1].Max(q => q.MaxX) > gap) runs.Add([]);
+                    runs[^1].Add(p);
+                }
             }
             foreach (var run in runs)
             {
@@ -213,6 +235,51 @@ internal sealed class LineSegmenter
         return result;
     }
 
+    /// <summary>A component's ink within one band, with its bounds (inclusive).</summary>
+    private readonly record struct Piece(int Component, int Band, int MinX, int MinY, int MaxX, int MaxY, int Area)
+    {
+        public double MidY => (MinY + MaxY) / 2.0;
+    }
+
+    /// <summary>
+    /// A band's pieces in tiers, top to bottom: where the pieces' middles leave a vertical gap of more than 0.6 of
+    /// the pitch, two lines share the band (a short line above or below a long one: its profile peak is only a
+    /// shoulder of the long line's, so the profile gave them one band). Grouping components into lines by the
+    /// position of their middles is the connected-component side of line segmentation (as in Louloudis et al.
+    /// 2008, "Text line detection in handwritten documents", Pattern Recognition 41(12), which groups component
+    /// centres along lines). Each tier must hold ink enough for a line, so a cut-off descender stays with the line.
+    /// </summary>
+    private static List<List<Piece>> Tiers(List<Piece> pieces, int pitch, double hText, double minSeed)
+    {
+        var tiers = new List<List<Piece>> { pieces };
+        if (pitch <= 0 || pieces.Count < 2) return tiers;
+        for (var t = 0; t < tiers.Count; t++)
+        {
+            var sorted = tiers[t].OrderBy(p => p.MidY).ToList();
+            int cut = -1;
+            var widest = 0.6 * pitch;
+            for (var i = 1; i < sorted.Count; i++)
+            {
+                var g = sorted[i].MidY - sorted[i - 1].MidY;
+                if (g <= widest) continue;
+                var (upper, lower) = (sorted.Take(i).ToList(), sorted.Skip(i).ToList());
+                if (!LineLike(upper) || !LineLike(lower)) continue;
+                widest = g;
+                cut = i;
+            }
+            if (cut < 0) continue;
+            tiers[t] = sorted.Take(cut).ToList();
+            tiers.Insert(t + 1, sorted.Skip(cut).ToList());
+            t--; // the upper tier may split again
+        }
+        return tiers;
+
+        bool LineLike(List<Piece> tier) =>
+            tier.Sum(p => p.Area) >= 2 * minSeed && tier.Max(p => p.MaxY) - tier.Min(p => p.MinY) + 1 >= 0.4 * hText;
+    }
+
+    private static double WeightedMiddle(List<Piece> tier) => tier.Sum(p => p.MidY * p.Area) / tier.Sum(p => (double)p.Area);
+
     private static double[] Gaussian(double[] v, double sigma)
     {
         var r = Math.Max(1, (int)Math.Ceiling(3 * sigma));
@@ -233,9 +300,52 @@ internal sealed class LineSegmenter
         return result;
     }
 
+    /// <summary>
+    /// The column's line pitch (rows from one line to the next), from the autocorrelation of its row profile: the
+    /// smallest lag within 0.5..4 text heights whose correlation comes close to the best there (the profile of lines
+    /// written at a steady spacing is periodic, and its autocorrelation peaks at the period and its multiples;
+    /// common practice, no source). 0 when the profile shows no period (a column of one or two lines).
+    /// </summary>
+    private static int Pitch(double[] profile, double hText)
+    {
+        int first = -1, last = -1;
+        for (var y = 0; y < profile.Length; y++)
+            if (profile[y] > 0) { if (first < 0) first = y; last = y; }
+        if (first < 0) return 0;
+        var n = last - first + 1;
+        var mean = 0.0;
+        for (var y = first; y <= last; y++) mean += profile[y];
+        mean /= n;
+        var v = new double[n];
+        for (var y = 0; y < n; y++) v[y] = profile[first + y] - mean;
+        var energy = v.Sum(x => x * x);
+        int lo = Math.Max(2, (int)(0.5 * hText)), hi = Math.Min(n / 2, (int)Math.Ceiling(4 * hText));
+        if (energy <= 0 || hi <= lo + 1) return 0;
+        var r = new double[hi + 2];
+        for (var k = lo - 1; k <= hi + 1; k++)
+        {
+            double sum = 0;
+            for (var y = 0; y + k < n; y++) sum += v[y] * v[y + k];
+            r[k] = sum / energy;
+        }
+        var best = 0.0;
+        for (var k = lo; k <= hi; k++) best = Math.Max(best, r[k]);
+        if (best < 0.1) return 0;
+        for (var k = lo; k <= hi; k++)
+            if (r[k] >= r[k - 1] && r[k] >= r[k + 1] && r[k] >= 0.5 * best && r[k] >= 0.1) return k;
+        return 0;
+    }
+
+    /// <summary>Whether <paramref name="pitch"/> is within a tenth of a whole multiple (at least 1) of <paramref name="unit"/>.</summary>
+    private static bool IsMultiple(int pitch, int unit)
+    {
+        var n = Math.Round((double)pitch / unit);
+        return n >= 1 && Math.Abs(pitch - n * unit) <= 0.1 * n * unit;
+    }
+
     /// <summary>Local maxima of the smoothed profile that stand out, merged while closer than a line spacing or not
     /// separated by a clear valley.</summary>
-    private static List<int> Peaks(double[] s, double hText, PageOptions options)
+    private static List<int> Peaks(double[] s, double hText, int pitch, PageOptions options)
     {
         var max = s.Length == 0 ? 0 : s.Max();
         var floor = Math.Max(0.1 * hText, 0.02 * max);
@@ -263,8 +373,11 @@ internal sealed class LineSegmenter
                 int a = peaks[i], b = peaks[i + 1];
                 var valley = double.MaxValue;
                 for (var y = a; y <= b; y++) valley = Math.Min(valley, s[y]);
-                // Two peaks are one line when close, or when the profile hardly dips between them.
-                if (b - a < minSpacing || valley > 0.75 * Math.Min(s[a], s[b]))
+                // Two peaks are one line when close, or when the profile hardly dips between them. Peaks about a line
+                // pitch apart are neighbouring lines as soon as the profile dips at all: where rows touch, ascenders
+                // and descenders fill the valley, and a short line's peak stands lower than its long neighbours'.
+                var dip = pitch > 0 && b - a >= 0.75 * pitch ? 0.9 : 0.75;
+                if (b - a < minSpacing || valley > dip * Math.Min(s[a], s[b]))
                 {
                     peaks.RemoveAt(s[a] >= s[b] ? i + 1 : i);
                     merged = true;

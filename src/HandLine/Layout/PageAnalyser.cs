@@ -6,7 +6,8 @@ namespace HandLine.Layout;
 /// A scanned page to its lines in reading order, in stages: illumination flattening
 /// (<see cref="IlluminationFlattener"/>, background division) → deskew (the rotation whose horizontal projection
 /// profile is sharpest, searched within ± <see cref="PageOptions.MaxDeskewDegrees"/>, as for lines:
-/// <c>SkewEstimator</c>) → binarisation (Otsu's threshold) → ruled-line detection and removal
+/// <c>SkewEstimator</c>) → binarisation (halfway from paper to ink, with hysteresis: <see cref="InkHysteresis"/>)
+/// → ruled-line detection and removal
 /// (<see cref="RuleRemover"/>, opening with long line-shaped structuring elements, crossing writing kept) → columns
 /// (vertical rules that run down the page, and clear vertical strips with writing on both sides) → text lines
 /// (<see cref="LineSegmenter"/>: smoothed projection profiles per column with connected-component assignment) →
@@ -61,10 +62,11 @@ public sealed class PageAnalyser
         flat = null!; // the page's copy is not needed past here; let a large page's memory go
         int uw = upright.Width, uh = upright.Height;
 
-        var rules = Writing(upright, o);
+        var rules = Writing(upright, o, out var strong);
         if (rules is null)
             return new PageLayout(w, h, deskew, [], []);
-        var components = Components.Label(rules.Ink, uw, uh);
+        // Hysteresis: a component is writing only where some of its pixels are clearly dark.
+        var components = InkHysteresis.Apply(rules.Ink, upright.Pixels, uw, uh, strong);
         var textHeight = LineSegmenter.TextHeight(components);
         if (textHeight <= 0)
             return new PageLayout(w, h, deskew, [], []);
@@ -83,10 +85,12 @@ public sealed class PageAnalyser
 
     /// <summary>
     /// The page's writing: a mask of the ink with the ruled lines taken off (<see cref="RuleRemover"/>); null when
-    /// the page has too little contrast to hold any.
+    /// the page has too little contrast to hold any. <paramref name="strong"/>: the level a piece of writing must
+    /// reach somewhere to be kept (<see cref="PageOptions.StrongInkShare"/>, see <see cref="InkHysteresis"/>).
     /// </summary>
-    internal static RuleRemoval? Writing(GrayImage page, PageOptions o)
+    internal static RuleRemoval? Writing(GrayImage page, PageOptions o, out float strong)
     {
+        strong = 0;
         // Paper is most of a page: its level is the median. Ink is the darkest percent (a page has more than that
         // of writing); a rule is darker than a quarter of the way from paper to ink. Rules can be darker than a
         // thin hand, so once they are found the levels are measured again without them, and writing is what is
@@ -116,6 +120,7 @@ public sealed class PageAnalyser
         for (var i = 0; i < px.Length; i++)
             rules.Ink[i] = rules.Removed[i] == 0 && px[i] < threshold ? (byte)1 : (byte)0;
         ink = null!;
+        strong = paper - (float)o.StrongInkShare * (paper - writing);
         return rules;
     }
 

@@ -40,7 +40,7 @@ internal static class PageAxisEstimator
         var small = Resampler.BoxDownscale(luminance, factor);
         int w = small.Width, h = small.Height;
         var flat = IlluminationFlattener.Flatten(small, Math.Max(15, (int)(o.FlattenWindowFraction * Math.Min(w, h))));
-        if (PageAnalyser.Writing(flat, o) is not { } writing) return null;
+        if (PageAnalyser.Writing(flat, o, out _) is not { } writing) return null;
         var ink = writing.Ink;
 
         var side = Math.Max(16, Math.Min(w, h) / o.AxisSquares);

@@ -19,6 +19,12 @@ public sealed record PageOptions
     /// <summary>Share of a page's pixels taken as the level of full ink (the darkest ones); a page holds more writing than this.</summary>
     public double InkQuantile { get; init; } = 0.01;
 
+    /// <summary>
+    /// Ink is what is darker than halfway from paper to the ink level; a component counts as writing only when its
+    /// darkest pixel reaches at least this share of the way (hysteresis: faint stain edges and shadows drop out).
+    /// </summary>
+    public double StrongInkShare { get; init; } = 0.75;
+
     /// <summary>A straight dark run at least this share of the page's width (height) is a horizontal (vertical) rule.</summary>
     public double RuleMinLengthFraction { get; init; } = 0.12;
 
@@ -29,7 +35,7 @@ public sealed record PageOptions
     public double ColumnRuleFraction { get; init; } = 0.25;
 
     /// <summary>A clear vertical strip at least this many text heights wide, with writing on both sides, divides columns too.</summary>
-    public double ColumnGapHeights { get; init; } = 2.5;
+    public double ColumnGapHeights { get; init; } = 1.5;
 
     /// <summary>Within a row and column, writing further apart than this many text heights is two lines.</summary>
     public double PartGapHeights { get; init; } = 4;
@@ -65,6 +71,7 @@ public sealed record PageOptions
         Check(DeskewPixels >= 50_000, nameof(DeskewPixels), "must be at least 50000");
         Check(FlattenWindowFraction is > 0.005 and < 0.5, nameof(FlattenWindowFraction), "must be within 0.005..0.5");
         Check(InkQuantile is > 0 and < 0.5, nameof(InkQuantile), "must be within 0..0.5");
+        Check(StrongInkShare is >= 0.5 and < 1, nameof(StrongInkShare), "must be within 0.5..1");
         Check(RuleMinLengthFraction is > 0.02 and < 1, nameof(RuleMinLengthFraction), "must be within 0.02..1");
         Check(RuleMaxThicknessPx is >= 1 and <= 50, nameof(RuleMaxThicknessPx), "must be within 1..50");
         Check(ColumnRuleFraction is > 0 and <= 1, nameof(ColumnRuleFraction), "must be within 0..1");

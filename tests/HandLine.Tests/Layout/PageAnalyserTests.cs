@@ -56,8 +56,9 @@ public sealed class PageAnalyserTests
             var layout = analyser.Analyse(ImageLoader.Load(Path.Combine(dir, "pages", name + ".png"), InputLimits.Default));
             var truth = BoxFile.Read(Path.Combine(dir, "boxes", name + ".tsv"));
             var score = SegmentationScore.Match(name, truth, layout.Lines.Select(l => l.Box).ToArray());
-            // Measured: 62 of 66 lines on the ledger page (two pairs of touching entries merge), 90 of 91 on the register.
-            Assert.True(score.Matched >= 0.9 * truth.Count, $"{name}: {score.Matched} of {truth.Count} matched");
+            // Measured: 66 of 66 lines on the ledger page, 91 of 91 on the register (62 and 90 before the line
+            // pitch parted touching entries); the bar leaves room for small changes of the drawing.
+            Assert.True(score.Matched >= 0.97 * truth.Count, $"{name}: {score.Matched} of {truth.Count} matched");
 
             // Reading order: entries never go back up, and within an entry the columns run left to right.
             for (var i = 1; i < layout.Lines.Count; i++)
@@ -81,6 +82,44 @@ public sealed class PageAnalyserTests
         var truth = BoxFile.Read(Path.Combine(dir, "boxes", "page-0001.tsv"));
         for (var i = 0; i < 3; i++)
             Assert.True(first[i].Box.IoU(truth[i]) >= 0.5, $"part {i} of the first entry is not where the truth has it");
+    }
+
+    [Fact]
+    public void AMarginEntryTwoTextHeightsLeftOfTheDescriptionIsALineOfItsOwn()
+    {
+        // A drawn page without rules: descriptions from x 200, and on every third row a margin entry ("No. 6") that
+        // ends 45 px (about two text heights) before the description starts. Only the clear strip between them, all
+        // down the page, tells that they are two columns (within a row, 45 px is a wide gap between words, not two
+        // lines).
+        const int w = 900, h = 1100;
+        var px = Enumerable.Repeat(0.92f, w * h).ToArray();
+        void Fill(int x0, int y0, int x1, int y1)
+        {
+            for (var y = y0; y <= y1; y++)
+                for (var x = x0; x <= x1; x++) px[y * w + x] = 0.15f;
+        }
+        void Word(int x0, int x1, int baseline)
+        {
+            var n = 0;
+            for (var x = x0; x + 8 <= x1; x += 12, n++)
+            {
+                Fill(x, baseline - 12, x + 7, baseline - 1);
+                if (n % 2 == 0) Fill(x, baseline - 24, x + 2, baseline - 13);
+                else Fill(x + 5, baseline, x + 7, baseline + 7);
+            }
+        }
+        var margin = new List<LineBox>();
+        for (var k = 0; k < 24; k++)
+        {
+            var baseline = 100 + 40 * k;
+            Word(200, k % 2 == 0 ? 820 : 560, baseline);
+            if (k % 3 != 0) continue;
+            Word(100, 155, baseline);
+            margin.Add(new LineBox(100, baseline - 24, 55, 32));
+        }
+        var layout = new PageAnalyser().Analyse(new GrayImage(w, h, px));
+        Assert.Equal(24 + margin.Count, layout.Lines.Count);
+        Assert.All(margin, m => Assert.Contains(layout.Lines, l => l.Column == 0 && l.Box.IoU(m) >= 0.5));
     }
 
     [Fact]
