@@ -6,10 +6,12 @@
 # `--hidden N`: filters copied, first-layer input weights resampled over the rows; a wider LSTM keeps every old
 # weight and gives its new units no say until trained), so the comparison asks which shape pays off from here,
 # per hour of training on this machine, not which shape learns fastest from new weights (models/README.md,
-# "Choosing the architecture", compared that). The time budget is MINUTES per setting (default 45); each setting
-# runs alone with THREADS threads (default 2) unless JOBS (default 1) says otherwise. Rerunning resumes unfinished
+# "Choosing the architecture", compared that). The time budget is MINUTES per setting (default 45), with THREADS
+# threads each (default 2), JOBS settings at a time (default 1; JOBS=3 THREADS=1 runs all three side by side, so
+# they share the machine alike when other work runs on it too). Rerunning resumes unfinished
 # settings from their checkpoints; ONLY (e.g. ONLY=B) runs just the settings whose names start with it.
-# Needs the sets of tools/make-sets.sh (mixed-2, mnist-train5, the validation sets) and .cache/bin.
+# The lines: part 4's sets (mixed-1, mnist-train4; BASE = part 5's result had seen a third of a pass of them).
+# Needs those sets of tools/make-sets.sh, the validation sets and .cache/bin.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 s=.cache/synth
@@ -31,7 +33,7 @@ manifest() { # SET HEIGHT -> path of the set's manifest for that height
 }
 run() {
   local name=$1 height=$2; shift 2
-  hl train --from "$base" --train "$(manifest mixed-2 "$height")" "$(manifest mnist-train5 "$height")" \
+  hl train --from "$base" --train "$(manifest mixed-1 "$height")" "$(manifest mnist-train4 "$height")" \
     --valid "$(manifest valid-mixed.tsv "$height")" --out "$out/$name.hlm" --learning-rate 0.0005 --seed 7 \
     --threads "${THREADS:-2}" --batch 32 --epoch-lines 10000 --epochs 100 --max-minutes "$minutes" --resume \
     --keep-prepared "$@" >> "$out/$name.log" 2>&1

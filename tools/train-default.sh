@@ -31,14 +31,22 @@ case "$part" in
   4) sets=(mixed-1:60000:31 mnist-train4:20000:33); step=0.0005; planned=120 ;;
   # fresh lines of the same kinds, from models/broad.hlm (part 4's result)
   5) sets=(mixed-2:50000:35 mnist-train5:15000:37); step=0.0005; planned=110 ;;
-  # parts 4 and 5's sets together (180,000 lines, already rendered and prepared, so training starts at once): part 5
-  # saw mixed-1 for only a third of a pass and mixed-2 for little more than one
-  6) sets=(mixed-1:60000:31 mixed-2:50000:35 mnist-train4:20000:33 mnist-train5:15000:37); step=0.0005; planned=130 ;;
+  # part 6 is setting B of the input comparison (tools/compare-inputs.sh, models/README.md "Line height and width"):
+  # part 5's model reshaped to line height 48, frame stride 4, trained on part 4's sets; it is run by that script
+  6) sets=(mixed-1:60000:31 mnist-train4:20000:33); step=0.0005; planned=72 ;;
   *) echo "tools/train-default.sh: part $part is not defined yet" >&2; exit 2 ;;
 esac
 minutes="${2:-$planned}"
 
 bash tools/make-sets.sh "${sets[@]}" # fonts, digits, the held-out sets and this part's training sets
+if (( part == 6 )); then
+  # The comparison's settings ran side by side (JOBS=3 THREADS=1); setting B's run was then resumed alone on
+  # 2 threads to the end of its second epoch. Its result is the broad model from here on.
+  ONLY=B MINUTES="$minutes" THREADS="${HANDLINE_TRAIN_THREADS:-2}" bash tools/compare-inputs.sh
+  cp .cache/compare-inputs/B-h48-s4-w192.hlm models/broad.hlm
+  hl fit-temperature "$s/valid/lines.tsv" --model models/broad.hlm --out models/broad.hlm --count 1000
+  exit 0
+fi
 manifests=()
 for set in "${sets[@]}"; do manifests+=("$s/${set%%:*}/lines.tsv"); done
 
